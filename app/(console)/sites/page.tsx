@@ -1,0 +1,55 @@
+import Link from "next/link";
+import { PageHeader } from "@/components/shell/page-header";
+import { EmptyState } from "@/components/ui/empty-state";
+import { currentActor } from "@/lib/auth/guard";
+import { listSites } from "@/lib/data/sites";
+
+export const metadata = { title: "Sites" };
+
+export default async function SitesPage() {
+  const actor = await currentActor();
+  const sites = await listSites(actor);
+  return (
+    <>
+      <PageHeader title="Sites" crumbs={[{ href: "/", label: "Overview" }, { label: "Sites" }]} />
+      {sites.length === 0 ? (
+        <EmptyState title="No sites yet">An administrator adds the first site.</EmptyState>
+      ) : (
+        <div className="overflow-x-auto rounded-panel border border-panel-line bg-panel">
+          <table>
+            <thead>
+              <tr>
+                <th scope="col">Site</th>
+                <th scope="col">Slug</th>
+                <th scope="col">Time zone</th>
+                <th scope="col">Uplink budget</th>
+                <th scope="col">Storage price</th>
+                <th scope="col">Retention</th>
+                <th scope="col">Tags in no group</th>
+                <th scope="col">Gateways</th>
+              </tr>
+            </thead>
+            <tbody>
+              {sites.map((s) => (
+                <tr key={s.id}>
+                  <td>
+                    <Link href={`/sites/${s.slug}`} className="font-medium text-weir-700 hover:underline">
+                      {s.name}
+                    </Link>
+                  </td>
+                  <td className="font-mono text-label">{s.slug}</td>
+                  <td>{s.timeZone}</td>
+                  <td>{s.uplinkBudgetKbps.toLocaleString("en")} kbit/s</td>
+                  <td>{s.storagePricePerGbMonth.toFixed(4)} per GB-month</td>
+                  <td>{s.retentionMonths} months</td>
+                  <td>{s.defaultHandling}</td>
+                  <td>{s.gatewayCount}</td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        </div>
+      )}
+    </>
+  );
+}

@@ -1,0 +1,75 @@
+import "server-only";
+import { NextResponse } from "next/server";
+import { ConnectionError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from "sequelize";
+import { ZodError } from "zod";
+
+/** An error that knows its HTTP status and, for bad input, the field at fault. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    message: string,
+    readonly field?: string,
+    readonly headers?: Record<string, string>,
+  ) {
+    super(message);
+  }
+}
+
+export type ErrorBody = { error: string; field?: string; issues?: { field: string; message: string }[] };
+
+/** Maps any thrown value to a status and a JSON body; never leaks a stack trace. */
+export function describeError(err: unknown): { status: number; body: ErrorBody; headers?: Record<string, string> } {
+  if (err instanceof HttpError) {
+    return { status: err.status, body: { error: err.message, ...(err.field ? { field: err.field } : {}) }, headers: err.headers };
+  }
+  if (err instanceof ZodError) {
+    const issues = err.issues.map((i) => ({ field: i.path.join(".") || "body", message: i.message }));
+    return { status: 422, body: { error: `${issues[0].field}: ${issues[0].message}`, field: issues[0].field, issues } };
+  }
+  if (err instanceof UniqueConstraintError) {
+    const field = Object.keys(err.fields ?? {})[0] ?? "unknown";
+    const clean = field.replace(/_/g, " ");
+    return { status: 409, body: { error: `that ${clean} is already taken`, field: camel(field) } };
+  }
+  if (err instanceof ForeignKeyConstraintError) {
+    return { status: 409, body: { error: "the record is still referenced by other records" } };
+  }
+  if (err instanceof SequelizeValidationError) {
+    const first = err.errors[0];
+    return { status: 422, body: { error: first?.message ?? "invalid input", field: first?.path ?? undefined } };
+  }
+  if (err instanceof ConnectionError) {
+    return { status: 503, body: { error: "the database is unavailable; try again shortly" }, headers: { "Retry-After": "5" } };
+  }
+  console.error(err);
+  return { status: 500, body: { error: "internal error" } };
+}
+
+function camel(s: string) {
+  return s.replace(/_([a-z])/g, (_, c: string) => c.toUpperCase());
+}
+
+export function errorResponse(err: unknown): NextResponse {
+  const { status, body, headers } = describeError(err);
+  return NextResponse.json(body, { status, headers });
+}
+
+/** Wraps a route handler so every failure becomes a JSON error with the right status. */
+export function route<Ctx>(fn: (req: Request, ctx: Ctx) => Promise<Response>) {
+  return async (req: Request, ctx: Ctx): Promise<Response> => {
+    try {
+      return await fn(req, ctx);
+    } catch (err) {
+      return errorResponse(err);
+    }
+  };
+}
+
+/** Reads a JSON body, refusing a body that is not JSON with 400. */
+export async function readJson(req: Request): Promise<unknown> {
+  try {
+    return await req.json();
+  } catch {
+    throw new HttpError(400, "the request body must be JSON", "body");
+  }
+}

@@ -1,0 +1,51 @@
+// The single source of what each role may do (DESIGN.md "Roles"). The guard reads it,
+// the navigation reads it, and the role-matrix test walks it.
+
+export const ROLES = ["viewer", "engineer", "reviewer", "admin"] as const;
+export type Role = (typeof ROLES)[number];
+
+export const PERMISSIONS = {
+  /** Read everything except tokens and users. */
+  read: ["viewer", "engineer", "reviewer", "admin"],
+  /** Tags, groups, profiles, assignments, drafts. */
+  "config.edit": ["engineer", "admin"],
+  /** Submit a change for review. */
+  "change.submit": ["engineer", "admin"],
+  /** Approve or reject (not one's own), release, roll back. */
+  "change.review": ["reviewer", "admin"],
+  /** Users, sites, gateways, tokens, signing key. */
+  "fleet.admin": ["admin"],
+} as const satisfies Record<string, readonly Role[]>;
+
+export type Permission = keyof typeof PERMISSIONS;
+
+/** Who may call a route: a permission, anyone ("public"), or a gateway token ("gateway"). */
+export type Access = Permission | "public" | "gateway";
+
+export function can(role: Role, permission: Permission): boolean {
+  return (PERMISSIONS[permission] as readonly Role[]).includes(role);
+}
+
+export function isRole(value: unknown): value is Role {
+  return typeof value === "string" && (ROLES as readonly string[]).includes(value);
+}
+
+/**
+ * Every route handler, as "METHOD /path" with the file-system path of its route.ts.
+ * A route that is not listed here fails the role-matrix test.
+ */
+export const ROUTE_ACCESS: Record<string, Access> = {
+  "GET /api/auth/[...nextauth]": "public",
+  "POST /api/auth/[...nextauth]": "public",
+  "GET /api/health": "public",
+  "GET /api/me": "read",
+  "GET /api/sites": "read",
+  "GET /api/sites/[site]": "read",
+  "GET /api/sites/[site]/gateways": "read",
+};
+
+/**
+ * Every server action, as "<actions file under app/>#<export>". A server action that is
+ * not listed here fails the role-matrix test.
+ */
+export const ACTION_ACCESS: Record<string, Permission> = {};

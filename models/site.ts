@@ -1,0 +1,34 @@
+import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type Sequelize } from "sequelize";
+
+export type DefaultHandling = "pass-through" | "drop" | "profile";
+
+export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<Site>> {
+  declare id: CreationOptional<number>;
+  declare slug: string;
+  declare name: string;
+  declare timeZone: string;
+  declare uplinkBudgetKbps: number;
+  declare storagePricePerGbMonth: number;
+  declare retentionMonths: number;
+  declare defaultHandling: CreationOptional<DefaultHandling>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize) {
+    Site.init(
+      {
+        id: { type: DataTypes.INTEGER.UNSIGNED, autoIncrement: true, primaryKey: true },
+        slug: { type: DataTypes.STRING(64), allowNull: false, unique: true },
+        name: { type: DataTypes.STRING(120), allowNull: false },
+        timeZone: { type: DataTypes.STRING(64), allowNull: false },
+        uplinkBudgetKbps: { type: DataTypes.DECIMAL(12, 3), allowNull: false },
+        storagePricePerGbMonth: { type: DataTypes.DECIMAL(12, 4), allowNull: false },
+        retentionMonths: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
+        defaultHandling: { type: DataTypes.ENUM("pass-through", "drop", "profile"), allowNull: false, defaultValue: "pass-through" },
+        createdAt: DataTypes.DATE(3),
+        updatedAt: DataTypes.DATE(3),
+      },
+      { sequelize, tableName: "sites", underscored: true },
+    );
+  }
+}
