@@ -16,7 +16,6 @@ const mode = process.argv[2] ?? "start";
 const parts = process.argv.slice(3);
 const children = new Set();
 let db = null;
-let cleanupDone = false;
 let tmpData = null;
 
 function log(msg) {
@@ -309,9 +308,15 @@ async function waitForHttp(url, child, ms = 90_000) {
   throw new Error(`${url} did not answer within ${ms / 1000} s`);
 }
 
-async function cleanup() {
-  if (cleanupDone) return;
-  cleanupDone = true;
+let cleanupPromise = null;
+
+/** Stops what this script started; every caller waits for the same, single clean-up. */
+function cleanup() {
+  cleanupPromise ??= doCleanup();
+  return cleanupPromise;
+}
+
+async function doCleanup() {
   for (const child of children) {
     if (child.exitCode === null) {
       const done = new Promise((r) => child.once("exit", r));
@@ -384,7 +389,9 @@ function vitestRun(project, env, reportFile) {
 function readCounts(file) {
   try {
     const r = JSON.parse(fs.readFileSync(file, "utf8"));
-    return { passed: r.numPassedTests ?? 0, failed: (r.numFailedTests ?? 0) + (r.numFailedTestSuites ?? 0), skipped: r.numPendingTests ?? 0 };
+    // A file that fails to load counts once even though none of its tests ran.
+    const failed = r.numFailedTests || r.numFailedTestSuites || (r.success === false ? 1 : 0);
+    return { passed: r.numPassedTests ?? 0, failed, skipped: r.numPendingTests ?? 0 };
   } catch {
     return { passed: 0, failed: 1, skipped: 0 };
   }
@@ -429,7 +436,7 @@ async function test() {
     const child = spawnChild(process.execPath, [nextBin(), "start", "-p", String(appPort), "-H", "127.0.0.1"], appEnv);
     await waitForHttp(`http://127.0.0.1:${appPort}/sign-in`, child);
     log("browser tests (Chromium)");
-    vitestRun("e2e", { ...env, BASE_URL: `http://127.0.0.1:${appPort}` }, path.join(tmpData, "e2e.json"));
+    vitestRun("e2e", { ...env, SLUICE_E2E_URL: `http://127.0.0.1:${appPort}` }, path.join(tmpData, "e2e.json"));
     results.push(["e2e", readCounts(path.join(tmpData, "e2e.json"))]);
   }
   await cleanup();

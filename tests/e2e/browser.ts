@@ -1,0 +1,43 @@
+import fs from "node:fs";
+import path from "node:path";
+import { chromium, type Browser, type Page } from "playwright-core";
+
+export const BASE_URL = process.env.SLUICE_E2E_URL ?? "http://127.0.0.1:3000";
+const shotsDir = path.resolve("test-results", "screenshots");
+
+export const DEMO = {
+  admin: { email: "ada.admin@demo.invalid", password: "demo-admin-pass", name: "Ada Marsh" },
+  reviewer: { email: "rui.reviewer@demo.invalid", password: "demo-reviewer-pass", name: "Rui Calder" },
+  engineer: { email: "eli.engineer@demo.invalid", password: "demo-engineer-pass", name: "Eli Brennan" },
+  viewer: { email: "vic.viewer@demo.invalid", password: "demo-viewer-pass", name: "Vic Holloway" },
+} as const;
+
+/** Debian's Chromium, headless, with the flags this machine's closed network needs. */
+export function launch(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: "/usr/bin/chromium",
+    args: [
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+      "--no-first-run",
+    ],
+  });
+}
+
+export async function signIn(page: Page, who: { email: string; password: string }) {
+  await page.goto(`${BASE_URL}/sign-in`);
+  await page.getByLabel("E-mail").fill(who.email);
+  await page.getByLabel("Password").fill(who.password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((url) => !url.pathname.startsWith("/sign-in"));
+}
+
+/** Saves a screenshot for people to look at (test-results/screenshots); never used as proof. */
+export async function screenshot(page: Page, name: string) {
+  fs.mkdirSync(shotsDir, { recursive: true });
+  await page.screenshot({ path: path.join(shotsDir, `${name}.png`), fullPage: true });
+}
