@@ -1,6 +1,6 @@
 import "server-only";
 import { NextResponse } from "next/server";
-import { ConnectionError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from "sequelize";
+import { ConnectionError, DatabaseError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from "sequelize";
 import { ZodError } from "zod";
 
 /** An error that knows its HTTP status and, for bad input, the field at fault. */
@@ -37,6 +37,10 @@ export function describeError(err: unknown): { status: number; body: ErrorBody; 
   if (err instanceof SequelizeValidationError) {
     const first = err.errors[0];
     return { status: 422, body: { error: first?.message ?? "invalid input", field: first?.path ?? undefined } };
+  }
+  const errno = (err as { parent?: { errno?: number } })?.parent?.errno;
+  if (err instanceof DatabaseError && (errno === 1213 || errno === 1205)) {
+    return { status: 409, body: { error: "a concurrent change got in the way; reload and try again" }, headers: { "Retry-After": "1" } };
   }
   if (err instanceof ConnectionError) {
     return { status: 503, body: { error: "the database is unavailable; try again shortly" }, headers: { "Retry-After": "5" } };

@@ -39,13 +39,35 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   "POST /api/auth/[...nextauth]": "public",
   "GET /api/health": "public",
   "GET /api/me": "read",
+  "GET /api/audit": "read",
+  "GET /api/users": "fleet.admin",
+  "POST /api/users": "fleet.admin",
+  "PATCH /api/users/[id]": "fleet.admin",
+  "POST /api/users/[id]/password": "fleet.admin",
   "GET /api/sites": "read",
+  "POST /api/sites": "fleet.admin",
   "GET /api/sites/[site]": "read",
+  "PATCH /api/sites/[site]": "fleet.admin",
+  "DELETE /api/sites/[site]": "fleet.admin",
   "GET /api/sites/[site]/gateways": "read",
+  "POST /api/sites/[site]/gateways": "fleet.admin",
+  "GET /api/sites/[site]/gateways/[gateway]": "read",
+  "PATCH /api/sites/[site]/gateways/[gateway]": "fleet.admin",
+  "DELETE /api/sites/[site]/gateways/[gateway]": "fleet.admin",
 };
 
 /**
  * Every server action, as "<actions file under app/>#<export>". A server action that is
  * not listed here fails the role-matrix test.
  */
-export const ACTION_ACCESS: Record<string, Permission> = {};
+export const ACTION_ACCESS: Record<string, Permission> = {
+  "(console)/admin/users/actions.ts#createUserAction": "fleet.admin",
+  "(console)/admin/users/actions.ts#updateUserAction": "fleet.admin",
+  "(console)/admin/users/actions.ts#resetPasswordAction": "fleet.admin",
+  "(console)/sites/actions.ts#createSiteAction": "fleet.admin",
+  "(console)/sites/actions.ts#updateSiteAction": "fleet.admin",
+  "(console)/sites/actions.ts#deleteSiteAction": "fleet.admin",
+  "(console)/sites/actions.ts#createGatewayAction": "fleet.admin",
+  "(console)/sites/actions.ts#updateGatewayAction": "fleet.admin",
+  "(console)/sites/actions.ts#deleteGatewayAction": "fleet.admin",
+};

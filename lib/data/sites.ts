@@ -73,3 +73,13 @@ export async function listGateways(actor: Actor | null, siteSlug: string): Promi
   const rows = await Gateway.findAll({ where: { siteId: site.id }, order: [["name", "ASC"]] });
   return rows.map(presentGateway);
 }
+
+/** One gateway of a site, or 404. */
+export async function getGateway(actor: Actor | null, siteSlug: string, gatewaySlug: string): Promise<GatewayView> {
+  assertCan(actor, "read");
+  const site = await Site.findOne({ where: { slug: siteSlug } });
+  if (!site) throw new HttpError(404, `no site with slug "${siteSlug}"`, "site");
+  const gw = await Gateway.findOne({ where: { siteId: site.id, slug: gatewaySlug } });
+  if (!gw) throw new HttpError(404, `no gateway "${gatewaySlug}" at site "${siteSlug}"`, "gateway");
+  return presentGateway(gw);
+}

@@ -3,20 +3,32 @@ import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
 import { currentActor } from "@/lib/auth/guard";
 import { listSites } from "@/lib/data/sites";
+import { can } from "@/lib/permissions";
 
 export const metadata = { title: "Sites" };
 
 export default async function SitesPage() {
   const actor = await currentActor();
   const sites = await listSites(actor);
+  const admin = !!actor && can(actor.role, "fleet.admin");
   return (
     <>
-      <PageHeader title="Sites" crumbs={[{ href: "/", label: "Overview" }, { label: "Sites" }]} />
+      <PageHeader
+        title="Sites"
+        crumbs={[{ href: "/", label: "Overview" }, { label: "Sites" }]}
+        actions={
+          admin ? (
+            <Link href="/sites/new" className="rounded-panel bg-weir-600 px-3 py-1.5 text-label font-medium text-white hover:bg-weir-700">
+              New site
+            </Link>
+          ) : null
+        }
+      />
       {sites.length === 0 ? (
-        <EmptyState title="No sites yet">An administrator adds the first site.</EmptyState>
+        <EmptyState title="No sites yet">{admin ? "Use New site to add the first plant." : "An administrator adds the first site."}</EmptyState>
       ) : (
         <div className="overflow-x-auto rounded-panel border border-panel-line bg-panel">
-          <table>
+          <table aria-label="Sites">
             <thead>
               <tr>
                 <th scope="col">Site</th>

@@ -1,9 +1,10 @@
+import { randomUUID } from "node:crypto";
 import type { Gateway, Site } from "@/models";
-import { createGateway, createSite } from "../../factories";
+import { createGateway, createSite, createUser } from "../../factories";
 
 // One valid request per route and one valid input per server action, so that an allowed
 // role gets a success and the matrix measures authorisation alone. Called once per role:
-// samples that create records must make unique ones.
+// samples that create or delete records make fresh ones.
 
 export type Fixture = { site: Site; gateway: Gateway };
 
@@ -13,17 +14,83 @@ export async function makeFixture(): Promise<Fixture> {
   return { site, gateway };
 }
 
+const u = () => randomUUID().slice(0, 8);
+
+export const siteBody = () => ({
+  name: `Matrix site ${u()}`,
+  slug: `matrix-${u()}`,
+  timeZone: "Europe/Dublin",
+  uplinkBudgetKbps: 128,
+  storagePricePerGbMonth: 0.02,
+  retentionMonths: 12,
+  defaultHandling: "pass-through",
+});
+
+export const gatewayBody = () => ({ name: `Matrix gateway ${u()}`, slug: `mgw-${u()}`, description: "", pollSeconds: 60 });
+
 type RouteSample = (fx: Fixture) => Promise<{ path: string; params?: Record<string, string>; body?: unknown }>;
 
 export const ROUTE_SAMPLES: Record<string, RouteSample> = {
   "GET /api/health": async () => ({ path: "/api/health" }),
   "GET /api/me": async () => ({ path: "/api/me" }),
+  "GET /api/audit": async () => ({ path: "/api/audit?page=1" }),
+  "GET /api/users": async () => ({ path: "/api/users" }),
+  "POST /api/users": async () => ({ path: "/api/users", body: { email: `m-${u()}@test.invalid`, name: "Matrix", role: "viewer" } }),
+  "PATCH /api/users/[id]": async () => {
+    const user = await createUser();
+    return { path: `/api/users/${user.id}`, params: { id: String(user.id) }, body: { role: "engineer" } };
+  },
+  "POST /api/users/[id]/password": async () => {
+    const user = await createUser();
+    return { path: `/api/users/${user.id}/password`, params: { id: String(user.id) } };
+  },
   "GET /api/sites": async () => ({ path: "/api/sites" }),
+  "POST /api/sites": async () => ({ path: "/api/sites", body: siteBody() }),
   "GET /api/sites/[site]": async (fx) => ({ path: `/api/sites/${fx.site.slug}`, params: { site: fx.site.slug } }),
-  "GET /api/sites/[site]/gateways": async (fx) => ({
+  "PATCH /api/sites/[site]": async () => {
+    const site = await createSite();
+    return { path: `/api/sites/${site.slug}`, params: { site: site.slug }, body: { ...siteBody(), slug: site.slug } };
+  },
+  "DELETE /api/sites/[site]": async () => {
+    const site = await createSite();
+    return { path: `/api/sites/${site.slug}`, params: { site: site.slug } };
+  },
+  "GET /api/sites/[site]/gateways": async (fx) => ({ path: `/api/sites/${fx.site.slug}/gateways`, params: { site: fx.site.slug } }),
+  "POST /api/sites/[site]/gateways": async (fx) => ({
     path: `/api/sites/${fx.site.slug}/gateways`,
     params: { site: fx.site.slug },
+    body: gatewayBody(),
   }),
+  "GET /api/sites/[site]/gateways/[gateway]": async (fx) => ({
+    path: `/api/sites/${fx.site.slug}/gateways/${fx.gateway.slug}`,
+    params: { site: fx.site.slug, gateway: fx.gateway.slug },
+  }),
+  "PATCH /api/sites/[site]/gateways/[gateway]": async (fx) => ({
+    path: `/api/sites/${fx.site.slug}/gateways/${fx.gateway.slug}`,
+    params: { site: fx.site.slug, gateway: fx.gateway.slug },
+    body: { ...gatewayBody(), slug: fx.gateway.slug },
+  }),
+  "DELETE /api/sites/[site]/gateways/[gateway]": async (fx) => {
+    const gw = await createGateway(fx.site);
+    return { path: `/api/sites/${fx.site.slug}/gateways/${gw.slug}`, params: { site: fx.site.slug, gateway: gw.slug } };
+  },
 };
 
-export const ACTION_SAMPLES: Record<string, (fx: Fixture) => Promise<unknown>> = {};
+export const ACTION_SAMPLES: Record<string, (fx: Fixture) => Promise<unknown>> = {
+  "(console)/admin/users/actions.ts#createUserAction": async () => ({ email: `a-${u()}@test.invalid`, name: "Action", role: "engineer" }),
+  "(console)/admin/users/actions.ts#updateUserAction": async () => ({ id: (await createUser()).id, patch: { role: "reviewer" } }),
+  "(console)/admin/users/actions.ts#resetPasswordAction": async () => ({ id: (await createUser()).id }),
+  "(console)/sites/actions.ts#createSiteAction": async () => siteBody(),
+  "(console)/sites/actions.ts#updateSiteAction": async () => {
+    const site = await createSite();
+    return { site: site.slug, values: { ...siteBody(), slug: site.slug } };
+  },
+  "(console)/sites/actions.ts#deleteSiteAction": async () => ({ site: (await createSite()).slug }),
+  "(console)/sites/actions.ts#createGatewayAction": async (fx) => ({ site: fx.site.slug, values: gatewayBody() }),
+  "(console)/sites/actions.ts#updateGatewayAction": async (fx) => ({
+    site: fx.site.slug,
+    gateway: fx.gateway.slug,
+    values: { ...gatewayBody(), slug: fx.gateway.slug },
+  }),
+  "(console)/sites/actions.ts#deleteGatewayAction": async (fx) => ({ site: fx.site.slug, gateway: (await createGateway(fx.site)).slug }),
+};

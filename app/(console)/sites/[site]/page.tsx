@@ -1,25 +1,32 @@
-import { notFound } from "next/navigation";
+import Link from "next/link";
 import { PageHeader } from "@/components/shell/page-header";
+import { GatewayForm } from "@/components/sites/gateway-form";
 import { EmptyState } from "@/components/ui/empty-state";
 import { currentActor } from "@/lib/auth/guard";
 import { getSite, listGateways } from "@/lib/data/sites";
-import { HttpError } from "@/lib/http";
+import { can } from "@/lib/permissions";
+import { orNotFound } from "@/lib/site-page";
 
 type Props = { params: Promise<{ site: string }> };
 
 export default async function SitePage({ params }: Readonly<Props>) {
   const { site: slug } = await params;
   const actor = await currentActor();
-  const site = await getSite(actor, slug).catch((e) => {
-    if (e instanceof HttpError && e.status === 404) notFound();
-    throw e;
-  });
+  const site = await orNotFound(getSite(actor, slug));
   const gateways = await listGateways(actor, slug);
+  const admin = !!actor && can(actor.role, "fleet.admin");
   return (
     <>
       <PageHeader
         title={site.name}
         crumbs={[{ href: "/", label: "Overview" }, { href: "/sites", label: "Sites" }, { label: site.name }]}
+        actions={
+          admin ? (
+            <Link href={`/sites/${site.slug}/settings`} className="rounded-panel border border-panel-line bg-panel px-3 py-1.5 text-label font-medium hover:bg-panel-sunk">
+              Edit site settings
+            </Link>
+          ) : null
+        }
       />
       <section aria-labelledby="site-settings" className="mb-8 rounded-panel border border-panel-line bg-panel p-4">
         <h2 id="site-settings" className="mb-3">
@@ -43,7 +50,9 @@ export default async function SitePage({ params }: Readonly<Props>) {
           Gateways
         </h2>
         {gateways.length === 0 ? (
-          <EmptyState title="No gateways at this site">An administrator registers the site's edge gateways.</EmptyState>
+          <EmptyState title="No gateways at this site">
+            {admin ? "Add the site's first edge gateway with the form below." : "An administrator registers the site's edge gateways."}
+          </EmptyState>
         ) : (
           <div className="overflow-x-auto rounded-panel border border-panel-line bg-panel">
             <table>
@@ -58,7 +67,11 @@ export default async function SitePage({ params }: Readonly<Props>) {
               <tbody>
                 {gateways.map((g) => (
                   <tr key={g.id}>
-                    <td className="font-medium">{g.name}</td>
+                    <td>
+                      <Link href={`/sites/${site.slug}/gateways/${g.slug}`} className="font-medium text-weir-700 hover:underline">
+                        {g.name}
+                      </Link>
+                    </td>
                     <td className="font-mono text-label">{g.slug}</td>
                     <td>{g.pollSeconds} s</td>
                     <td className="text-ink-soft">{g.description}</td>
@@ -68,6 +81,12 @@ export default async function SitePage({ params }: Readonly<Props>) {
             </table>
           </div>
         )}
+        {admin ? (
+          <div className="mt-4 rounded-panel border border-panel-line bg-panel p-4">
+            <h3 className="mb-3 text-lead font-medium">Add a gateway</h3>
+            <GatewayForm site={site.slug} />
+          </div>
+        ) : null}
       </section>
     </>
   );

@@ -1,0 +1,56 @@
+import { PageHeader } from "@/components/shell/page-header";
+import { DeleteGatewayButton } from "@/components/sites/delete-controls";
+import { GatewayForm } from "@/components/sites/gateway-form";
+import { currentActor } from "@/lib/auth/guard";
+import { getGateway, getSite } from "@/lib/data/sites";
+import { can } from "@/lib/permissions";
+import { orNotFound } from "@/lib/site-page";
+
+type Props = { params: Promise<{ site: string; gateway: string }> };
+
+export default async function GatewayPage({ params }: Readonly<Props>) {
+  const { site: siteSlug, gateway: gatewaySlug } = await params;
+  const actor = await currentActor();
+  const site = await orNotFound(getSite(actor, siteSlug));
+  const gw = await orNotFound(getGateway(actor, siteSlug, gatewaySlug));
+  const admin = !!actor && can(actor.role, "fleet.admin");
+  return (
+    <>
+      <PageHeader
+        title={gw.name}
+        crumbs={[
+          { href: "/", label: "Overview" },
+          { href: "/sites", label: "Sites" },
+          { href: `/sites/${site.slug}`, label: site.name },
+          { label: gw.name },
+        ]}
+      />
+      <dl className="mb-8 grid max-w-3xl grid-cols-2 gap-x-4 gap-y-2 rounded-panel border border-panel-line bg-panel p-4 text-label">
+        <dt className="text-ink-faint">Slug</dt>
+        <dd className="font-mono">{gw.slug}</dd>
+        <dt className="text-ink-faint">Pulls its bundle every</dt>
+        <dd>{gw.pollSeconds} s</dd>
+        <dt className="text-ink-faint">Description</dt>
+        <dd>{gw.description || "—"}</dd>
+      </dl>
+      {admin ? (
+        <>
+          <section aria-labelledby="edit-gateway" className="mb-8 rounded-panel border border-panel-line bg-panel p-4">
+            <h2 id="edit-gateway" className="mb-3">
+              Edit gateway
+            </h2>
+            <GatewayForm site={site.slug} existing={{ name: gw.name, slug: gw.slug, description: gw.description, pollSeconds: gw.pollSeconds }} />
+          </section>
+          <section aria-labelledby="danger" className="rounded-panel border border-fault/40 bg-panel p-4">
+            <h2 id="danger" className="text-lead font-medium text-fault">
+              Delete this gateway
+            </h2>
+            <div className="mt-2">
+              <DeleteGatewayButton site={site.slug} gateway={gw.slug} name={gw.name} />
+            </div>
+          </section>
+        </>
+      ) : null}
+    </>
+  );
+}

@@ -1,0 +1,54 @@
+import { z } from "zod";
+
+export const SLUG_PATTERN = /^[a-z0-9](?:[a-z0-9-]{0,62}[a-z0-9])?$/;
+const slug = z
+  .string()
+  .trim()
+  .min(1, "Enter a slug.")
+  .max(64, "At most 64 characters.")
+  .regex(SLUG_PATTERN, "Lower-case letters, digits and single hyphens; no hyphen at either end.");
+
+/** IANA time-zone names this runtime knows (plus UTC). */
+export function timeZones(): string[] {
+  const zones = Intl.supportedValuesOf("timeZone");
+  return zones.includes("UTC") ? zones : ["UTC", ...zones];
+}
+
+function isTimeZone(tz: string) {
+  try {
+    new Intl.DateTimeFormat("en", { timeZone: tz });
+    return tz === "UTC" || timeZones().includes(tz);
+  } catch {
+    return false;
+  }
+}
+
+const number = (label: string) => z.coerce.number({ message: `${label} must be a number.` }).refine(Number.isFinite, `${label} must be a number.`);
+
+// Tags in no group: pass through or drop; "a chosen profile" arrives with reduction profiles.
+export const DEFAULT_HANDLINGS = ["pass-through", "drop"] as const;
+
+export const siteSchema = z.object({
+  name: z.string().trim().min(1, "Enter a name.").max(120, "At most 120 characters."),
+  slug,
+  timeZone: z.string().refine(isTimeZone, "Choose a time zone from the IANA list (e.g. Europe/London)."),
+  uplinkBudgetKbps: number("Uplink budget").pipe(z.number().gt(0, "Uplink budget must be above 0 kbit/s.").max(1e9)),
+  storagePricePerGbMonth: number("Storage price").pipe(z.number().min(0, "Storage price cannot be negative.").max(1e6)),
+  retentionMonths: number("Retention").pipe(z.number().int("Retention is a whole number of months.").min(1, "At least 1 month.").max(1200)),
+  defaultHandling: z.enum(DEFAULT_HANDLINGS, { message: "Choose pass-through or drop." }),
+});
+export type SiteInput = z.input<typeof siteSchema>;
+export type SiteValues = z.output<typeof siteSchema>;
+
+export const gatewaySchema = z.object({
+  name: z.string().trim().min(1, "Enter a name.").max(120, "At most 120 characters."),
+  slug,
+  description: z.string().trim().max(500, "At most 500 characters.").default(""),
+  pollSeconds: number("Poll interval").pipe(
+    z.number().int("Poll interval is a whole number of seconds.").min(5, "At least 5 s.").max(86400, "At most 86,400 s (a day)."),
+  ),
+});
+export type GatewayInput = z.input<typeof gatewaySchema>;
+export type GatewayValues = z.output<typeof gatewaySchema>;
+
+export const idSchema = z.coerce.number().int().positive();
