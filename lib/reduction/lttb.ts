@@ -1,0 +1,134 @@
+import { requireInteger } from "./params";
+import { allIndices, checkShape, failValidation, firstBadSampleIn, type Series, validateSeries } from "./series";
+
+export type BucketParams = {
+  /** Number of samples to keep, first and last included (integer ≥ 2). */
+  points: number;
+};
+
+/**
+ * Largest-Triangle-Three-Buckets — S. Steinarsson, "Downsampling Time Series for Visual
+ * Representation", MSc thesis, University of Iceland, 2013. Keeps the first and last
+ * samples and one per bucket in between: the one forming the largest triangle with the
+ * previously kept sample and the average of the next bucket.
+ *
+ * Bucket bounds, averages and the area expression follow the author's reference
+ * function operation for operation (the `downsample-lttb` npm package is a copy), so
+ * the kept indices are identical to it — including the last bucket, whose bounds come
+ * from floor((threshold − 2) × every) and can fall one sample short through float
+ * rounding. Timestamps are used as given (epoch ms), as the reference does.
+ *
+ * @returns kept indices, ascending; all indices when `points` ≥ the sample count.
+ */
+export function lttb(s: Series, p: BucketParams): Uint32Array {
+  checkShape(s);
+  const threshold = requireInteger("points", p.points, 2);
+  const { t, v } = s;
+  const n = t.length;
+  if (threshold >= n) {
+    failValidation(s);
+    return allIndices(n);
+  }
+  const out = new Uint32Array(threshold);
+  out[threshold - 1] = n - 1;
+  const every = (n - 2) / (threshold - 2);
+  // The scan checks the samples it averages, i.e. all from the second bucket on.
+  const firstAveraged = threshold > 2 ? Math.floor(every) + 1 : n;
+  if (firstBadSampleIn(t, v, 1, firstAveraged) >= 0 || (threshold > 2 && !fillLttb(t, v, out, every))) {
+    failValidation(s);
+    throw new Error("lttb: the scan stopped on a valid series");
+  }
+  return out;
+}
+
+/**
+ * Fills out[1 … threshold − 2]; checks order and finiteness of the samples it averages
+ * and returns false at the first bad one. Nothing follows the loop, so V8's code
+ * compiled while it runs (on-stack replacement) stays valid.
+ */
+function fillLttb(t: Float64Array, v: Float64Array, out: Uint32Array, every: number): boolean {
+  const n = t.length;
+  const buckets = out.length - 2;
+  let a = 0;
+  let tPrev = t[Math.floor(every)];
+  for (let i = 0; i < buckets; i++) {
+    // Average of the next bucket (the third corner of the triangle).
+    let avgStart = Math.floor((i + 1) * every) + 1;
+    let avgEnd = Math.floor((i + 2) * every) + 1;
+    avgEnd = avgEnd < n ? avgEnd : n;
+    const avgLength = avgEnd - avgStart;
+    let avgX = 0;
+    let avgY = 0;
+    for (; avgStart < avgEnd; avgStart++) {
+      const x = t[avgStart];
+      const y = v[avgStart];
+      if (!(x > tPrev) || y - y !== 0) return false;
+      tPrev = x;
+      avgX += x;
+      avgY += y;
+    }
+    avgX /= avgLength;
+    avgY /= avgLength;
+
+    const from = Math.floor(i * every) + 1;
+    const to = Math.floor((i + 1) * every) + 1;
+    const ax = t[a];
+    const ay = v[a];
+    const bx = ax - avgX;
+    const by = avgY - ay;
+    let maxArea = -1;
+    let next = from;
+    for (let j = from; j < to; j++) {
+      // The reference's expression, operation for operation.
+      const area = Math.abs(bx * (v[j] - ay) - (ax - t[j]) * by) * 0.5;
+      if (area > maxArea) {
+        maxArea = area;
+        next = j;
+      }
+    }
+    out[i + 1] = next;
+    a = next;
+  }
+  return true;
+}
+
+/**
+ * Largest-Triangle-One-Bucket — Steinarsson 2013 (thesis, section on LTOB): rank every
+ * sample by its effective area, the triangle it forms with its two neighbours
+ * (Visvalingam–Whyatt's measure), split the samples into the same buckets as LTTB
+ * (first and last samples alone in their own buckets) and keep the highest-ranked
+ * sample of each bucket (the first one on a tie).
+ *
+ * @returns kept indices, ascending; all indices when `points` ≥ the sample count.
+ */
+export function ltob(s: Series, p: BucketParams): Uint32Array {
+  validateSeries(s);
+  const threshold = requireInteger("points", p.points, 2);
+  const { t, v } = s;
+  const n = t.length;
+  if (threshold >= n) return allIndices(n);
+
+  const out = new Uint32Array(threshold);
+  out[threshold - 1] = n - 1;
+  fillLtob(t, v, out, (n - 2) / (threshold - 2));
+  return out;
+}
+
+/** Fills out[1 … threshold − 2]; nothing follows the loop (see fillLttb). */
+function fillLtob(t: Float64Array, v: Float64Array, out: Uint32Array, every: number): void {
+  const buckets = out.length - 2;
+  for (let i = 0; i < buckets; i++) {
+    const from = Math.floor(i * every) + 1;
+    const to = Math.floor((i + 1) * every) + 1;
+    let maxArea = -1;
+    let best = from;
+    for (let j = from; j < to; j++) {
+      const area = Math.abs((t[j - 1] - t[j + 1]) * (v[j] - v[j - 1]) - (t[j - 1] - t[j]) * (v[j + 1] - v[j - 1]));
+      if (area > maxArea) {
+        maxArea = area;
+        best = j;
+      }
+    }
+    out[i + 1] = best;
+  }
+}

@@ -1,0 +1,135 @@
+import { IndexBuffer } from "./index-buffer";
+import { optionalInterval, requireNonNegative } from "./params";
+import { allIndices, checkShape, failValidation, type Series } from "./series";
+
+export type SwingingDoorParams = {
+  /** Half-width of the corridor, in the tag's engineering unit (see percentOfRange). */
+  deviation: number;
+  /** Keep a sample at least this often (ms), unless two neighbours are further apart. */
+  maxIntervalMs?: number;
+};
+
+/**
+ * Swinging door trending — E. H. Bristol, "Swinging door trending: adaptive trend
+ * recording?", ISA National Conference, 1990 — in the formulation of DESIGN.md: keep
+ * the first sample as the anchor with an open corridor of slopes; for each new sample,
+ * if the slope from the anchor to it leaves the corridor narrowed by the samples since
+ * the anchor, keep the previous sample (the candidate) and make it the anchor; then
+ * narrow the corridor with the new sample:
+ * upper = min(upper, (v − vₐ + deviation)/Δt), lower = max(lower, (v − vₐ − deviation)/Δt).
+ * With `maxIntervalMs`, the candidate is also kept before a sample that would stretch
+ * the time from the anchor past the interval. First and last samples are always kept.
+ *
+ * Invariant: every dropped sample lies within ±deviation of the straight line between
+ * the kept samples around it, so `deviation` bounds the linear reconstruction error.
+ *
+ * @returns kept indices, ascending.
+ */
+export function swingingDoor(s: Series, p: SwingingDoorParams): Uint32Array {
+  checkShape(s);
+  const deviation = requireNonNegative("deviation", p.deviation);
+  const maxInterval = optionalInterval("maxIntervalMs", p.maxIntervalMs);
+  const { t, v } = s;
+  const n = t.length;
+  if (n <= 2) {
+    failValidation(s);
+    return allIndices(n);
+  }
+  let kept = new IndexBuffer(n >>> 5);
+  let anchor = swingFast(t, v, deviation, maxInterval, kept);
+  if (anchor < 0) {
+    failValidation(s); // throws for an invalid series; a valid one overflowed a slope
+    kept = new IndexBuffer(n >>> 5);
+    anchor = swingPlain(t, v, deviation, maxInterval, kept);
+  }
+  if (anchor !== n - 1) kept.push(n - 1);
+  return kept.toArray();
+}
+
+const OPEN = Number.MAX_VALUE;
+const SURE = 2 ** -47;
+
+/**
+ * The scan, checking order and finiteness as it goes; returns the last anchor, or −1
+ * when a timestamp does not ascend, a value is not finite or a slope overflows.
+ *
+ * The corridor is narrowed without branches (a data-dependent branch here mispredicts
+ * about every other sample): with f ∈ {0, 1}, up·f + upper·(1 − f) is exactly the chosen
+ * one of two finite numbers, so it equals min/max — hence the finite `OPEN` bound in
+ * place of Infinity. A non-finite value or overflowing slope turns the corridor NaN or
+ * infinite, which fails the next corridor test (written so that NaN fails it), and the
+ * check on that rare path reports it; the last value is checked by checkShape. Nothing
+ * follows the loop, so V8's code compiled while it runs (on-stack replacement) stays valid.
+ */
+function swingFast(t: Float64Array, v: Float64Array, deviation: number, maxInterval: number, kept: IndexBuffer): number {
+  const n = t.length;
+  kept.push(0);
+  let anchor = 0;
+  let ta = t[0];
+  let va = v[0];
+  let tPrev = ta;
+  let upper = OPEN;
+  let lower = -OPEN;
+  for (let i = 1; i < n; i++) {
+    const ti = t[i];
+    const vi = v[i];
+    if (!(ti > tPrev)) return -1;
+    tPrev = ti;
+    // The candidate is sample i − 1 whenever it is not the anchor itself (then the
+    // corridor is still OPEN and takes no part in a comparison).
+    let dt = ti - ta;
+    let dv = vi - va;
+    if (i - 1 > anchor) {
+      // Is dv/dt outside [lower, upper]? Decided by multiplication where the answer is
+      // certain (a margin of 2⁻⁴⁷ relative, far above rounding), by the division where
+      // it is not — so the outcome equals the plain test on the rounded slope.
+      const hu = upper * dt;
+      const hl = lower * dt;
+      if (dt > maxInterval || !(dv - hu <= -SURE * Math.abs(hu) && hl - dv <= -SURE * Math.abs(hl))) {
+        const slope = dv / dt;
+        if (dt > maxInterval || !(slope <= upper && slope >= lower)) {
+          if (slope - slope + (upper - upper) + (lower - lower) !== 0) return -1;
+          anchor = i - 1;
+          kept.push(anchor);
+          ta = t[anchor];
+          va = v[anchor];
+          upper = OPEN;
+          lower = -OPEN;
+          dt = ti - ta;
+          dv = vi - va;
+        }
+      }
+    }
+    const up = (dv + deviation) / dt;
+    const lo = (dv - deviation) / dt;
+    const fu = +(up < upper);
+    const fl = +(lo > lower);
+    upper = up * fu + upper * (1 - fu);
+    lower = lo * fl + lower * (1 - fl);
+  }
+  return anchor;
+}
+
+/** The same scan, word for word as DESIGN.md states it (Infinity, min, max). */
+function swingPlain(t: Float64Array, v: Float64Array, deviation: number, maxInterval: number, kept: IndexBuffer): number {
+  const n = t.length;
+  kept.push(0);
+  let anchor = 0;
+  let upper = Infinity;
+  let lower = -Infinity;
+  for (let i = 1; i < n; i++) {
+    if (i - 1 > anchor) {
+      const slope = (v[i] - v[anchor]) / (t[i] - t[anchor]);
+      if (t[i] - t[anchor] > maxInterval || slope > upper || slope < lower) {
+        anchor = i - 1;
+        kept.push(anchor);
+        upper = Infinity;
+        lower = -Infinity;
+      }
+    }
+    const dt = t[i] - t[anchor];
+    upper = Math.min(upper, (v[i] - v[anchor] + deviation) / dt);
+    lower = Math.max(lower, (v[i] - v[anchor] - deviation) / dt);
+  }
+  return anchor;
+}
