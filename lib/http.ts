@@ -10,6 +10,7 @@ export class HttpError extends Error {
     message: string,
     readonly field?: string,
     readonly headers?: Record<string, string>,
+    readonly issues?: { field: string; message: string }[],
   ) {
     super(message);
   }
@@ -20,16 +21,22 @@ export type ErrorBody = { error: string; field?: string; issues?: { field: strin
 /** Maps any thrown value to a status and a JSON body; never leaks a stack trace. */
 export function describeError(err: unknown): { status: number; body: ErrorBody; headers?: Record<string, string> } {
   if (err instanceof HttpError) {
-    return { status: err.status, body: { error: err.message, ...(err.field ? { field: err.field } : {}) }, headers: err.headers };
+    const issues = err.issues;
+    return {
+      status: err.status,
+      body: { error: err.message, ...(err.field ? { field: err.field } : {}), ...(issues ? { issues } : {}) },
+      headers: err.headers,
+    };
   }
   if (err instanceof ZodError) {
     const issues = err.issues.map((i) => ({ field: i.path.join(".") || "body", message: i.message }));
     return { status: 422, body: { error: `${issues[0].field}: ${issues[0].message}`, field: issues[0].field, issues } };
   }
   if (err instanceof UniqueConstraintError) {
-    const field = Object.keys(err.fields ?? {})[0] ?? "unknown";
-    const clean = field.replace(/_/g, " ");
-    return { status: 409, body: { error: `that ${clean} is already taken`, field: camel(field) } };
+    const keys = Object.keys(err.fields ?? {});
+    const column = keys.map((k) => UNIQUE_INDEX_FIELDS[k] ?? k).filter((k) => k !== "site_id").pop() ?? "unknown";
+    const what = UNIQUE_INDEX_WHAT[keys[0]] ?? column.replace(/_/g, " ");
+    return { status: 409, body: { error: `that ${what} is already taken`, field: camel(column) } };
   }
   if (err instanceof ForeignKeyConstraintError) {
     return { status: 409, body: { error: "the record is still referenced by other records" } };
@@ -48,6 +55,10 @@ export function describeError(err: unknown): { status: number; body: ErrorBody; 
   console.error(err);
   return { status: 500, body: { error: "internal error" } };
 }
+
+// Composite unique indexes, by name: the column the person typed, and what to call it.
+const UNIQUE_INDEX_FIELDS: Record<string, string> = { tags_site_name: "name", tag_groups_site_name: "name" };
+const UNIQUE_INDEX_WHAT: Record<string, string> = { tags_site_name: "tag name (at this site)", tag_groups_site_name: "group name (at this site)" };
 
 function camel(s: string) {
   return s.replace(/_([a-z])/g, (_, c: string) => c.toUpperCase());

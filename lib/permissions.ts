@@ -54,6 +54,22 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   "GET /api/sites/[site]/gateways/[gateway]": "read",
   "PATCH /api/sites/[site]/gateways/[gateway]": "fleet.admin",
   "DELETE /api/sites/[site]/gateways/[gateway]": "fleet.admin",
+  "GET /api/sites/[site]/tags": "read",
+  "POST /api/sites/[site]/tags": "config.edit",
+  "DELETE /api/sites/[site]/tags": "config.edit",
+  "PATCH /api/sites/[site]/tags/[tagId]": "config.edit",
+  "DELETE /api/sites/[site]/tags/[tagId]": "config.edit",
+  "POST /api/sites/[site]/tags/import": "config.edit",
+  "GET /api/sites/[site]/tags/export": "read",
+  "GET /api/sites/[site]/groups": "read",
+  "POST /api/sites/[site]/groups": "config.edit",
+  "GET /api/sites/[site]/groups/[groupId]": "read",
+  "PATCH /api/sites/[site]/groups/[groupId]": "config.edit",
+  "DELETE /api/sites/[site]/groups/[groupId]": "config.edit",
+  "PUT /api/sites/[site]/groups/order": "config.edit",
+  "POST /api/sites/[site]/groups/preview": "read",
+  "GET /api/sites/[site]/coverage": "read",
+  "GET /api/sites/[site]/draft": "read",
 };
 
 /**

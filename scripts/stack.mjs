@@ -452,8 +452,45 @@ async function test() {
   process.exit(failed > 0 || passed === 0 ? 1 : 0);
 }
 
+/** Benchmarks: the computation (no services), then the browser ones on a throwaway stack. */
+async function bench() {
+  const only = parts[0];
+  ensureNodeModules();
+  let code = 0;
+  if (!only || only === "reduction") {
+    log("reduction benchmarks");
+    code ||= run(bin("tsx"), ["bench/index.ts"]);
+  }
+  if (!only || only === "ui") {
+    ensureChromium();
+    tmpData = fs.mkdtempSync(path.join(os.tmpdir(), "sluice-bench-"));
+    const secrets = readSecrets(tmpData);
+    const port = await freePort(3327);
+    db = await startDatabase({ dataDir: tmpData, port, databases: ["sluice_bench"], password: secrets.dbPassword });
+    const appPort = await freePort(3110);
+    const env = {
+      ...process.env,
+      DATABASE_URL: dbUrl(port, "sluice_bench", secrets.dbPassword),
+      NEXTAUTH_SECRET: secrets.sessionSecret,
+      NEXTAUTH_URL: `http://127.0.0.1:${appPort}`,
+      SLUICE_DATA_DIR: tmpData,
+      NEXT_TELEMETRY_DISABLED: "1",
+      NODE_ENV: "production",
+    };
+    migrateAndSeed(env);
+    ensureBuild(env);
+    const child = spawnChild(process.execPath, [nextBin(), "start", "-p", String(appPort), "-H", "127.0.0.1"], env);
+    await waitForHttp(`http://127.0.0.1:${appPort}/sign-in`, child);
+    log("browser benchmarks");
+    code ||= run(bin("tsx"), ["bench/tag-table-scroll.ts"], { env: { ...env, SLUICE_E2E_URL: `http://127.0.0.1:${appPort}` } });
+  }
+  await cleanup();
+  process.exit(code);
+}
+
 try {
-  if (mode === "start") await serve(false);
+  if (mode === "bench") await bench();
+  else if (mode === "start") await serve(false);
   else if (mode === "dev") await serve(true);
   else if (mode === "test") await test();
   else fail(`unknown command ${mode}; use start, dev or test`);

@@ -3,7 +3,7 @@ import { encode } from "next-auth/jwt";
 import { NextRequest } from "next/server";
 import bcrypt from "bcryptjs";
 import type { Role } from "@/lib/permissions";
-import { Gateway, Site, User } from "@/models";
+import { Gateway, Site, Tag, TagGroup, TagGroupRule, User } from "@/models";
 import { setSessionCookie } from "./integration/cookie-jar";
 
 const unique = () => randomUUID().slice(0, 8);
@@ -35,6 +35,33 @@ export async function createSite(over: Partial<{ slug: string; name: string; tim
 export async function createGateway(site: Site, over: Partial<{ slug: string; name: string }> = {}) {
   const id = unique();
   return Gateway.create({ siteId: site.id, slug: over.slug ?? `gw-${id}`, name: over.name ?? `Gateway ${id}` });
+}
+
+export async function createTag(site: Site, gateway: Gateway, over: Partial<{ name: string; unit: string; kind: "analog" | "discrete" | "counter"; area: string | null }> = {}) {
+  return Tag.create({
+    siteId: site.id,
+    gatewayId: gateway.id,
+    name: over.name ?? `AREA/TT-${unique()}/PV`,
+    unit: over.unit ?? "degC",
+    samplePeriodMs: 1000,
+    kind: over.kind ?? "analog",
+    euLow: (over.kind ?? "analog") === "analog" ? 0 : null,
+    euHigh: (over.kind ?? "analog") === "analog" ? 150 : null,
+    area: over.area === undefined ? "AREA" : over.area,
+    equipment: null,
+  });
+}
+
+/** A tag group with name-pattern rules, created directly (no draft bookkeeping). */
+export async function createGroup(site: Site, over: Partial<{ name: string; priority: number; patterns: string[] }> = {}) {
+  const group = await TagGroup.create({
+    siteId: site.id,
+    name: over.name ?? `group-${unique()}`,
+    priority: over.priority ?? 10,
+  });
+  const patterns = over.patterns ?? ["AREA/*/PV"];
+  await TagGroupRule.bulkCreate(patterns.map((value, position) => ({ groupId: group.id, position, field: "pattern" as const, value })));
+  return group;
 }
 
 /** A real next-auth session cookie for the user, signed with the app's secret. */

@@ -1,5 +1,6 @@
 import "server-only";
 import type { Transaction } from "sequelize";
+import { Tag } from "@/models";
 
 type Target = { siteId: number } | { gatewayId: number };
 type Check = (target: Target, transaction: Transaction) => Promise<string | null>;
@@ -7,9 +8,15 @@ type Check = (target: Target, transaction: Transaction) => Promise<string | null
 /**
  * Reasons a site or gateway may not be deleted, in words for the person asking. Each
  * table that must outlive its site or gateway (releases, bundles, check-ins) adds its
- * check here in the issue that creates it; until then nothing refers to them.
+ * check here in the issue that creates it.
  */
-const CHECKS: Check[] = [];
+const CHECKS: Check[] = [
+  async (target, transaction) => {
+    if (!("gatewayId" in target)) return null;
+    const n = await Tag.count({ where: { gatewayId: target.gatewayId }, transaction });
+    return n ? `${n.toLocaleString("en")} tag${n === 1 ? " is" : "s are"} collected by it; move them to another gateway or delete them first` : null;
+  },
+];
 
 export async function deletionBlockers(target: Target, transaction: Transaction): Promise<string[]> {
   const reasons: string[] = [];

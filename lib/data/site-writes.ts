@@ -3,7 +3,7 @@ import type { Transaction } from "sequelize";
 import { recordAudit } from "@/lib/audit";
 import type { Actor } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http";
-import { Gateway, Site, sequelize } from "@/models";
+import { Change, Gateway, Site, Tag, sequelize } from "@/models";
 import { gatewaySchema, siteSchema, type GatewayInput, type SiteInput } from "@/schemas/site";
 import { assertCan } from "./access";
 import { deletionBlockers } from "./deletion-blockers";
@@ -77,7 +77,12 @@ export async function deleteSite(actor: Actor | null, slug: string): Promise<voi
     const blockers = await deletionBlockers({ siteId: site.id }, transaction);
     if (blockers.length) throw new HttpError(409, `Site "${site.name}" cannot be deleted: ${blockers.join("; ")}.`, "site");
     const gateways = await Gateway.findAll({ where: { siteId: site.id }, transaction, order: [["slug", "ASC"]] });
-    const before = { ...siteSnapshot(site), gateways: gateways.map((g) => g.slug) };
+    const tagCount = await Tag.count({ where: { siteId: site.id }, transaction });
+    const before = { ...siteSnapshot(site), gateways: gateways.map((g) => g.slug), tags: tagCount };
+    // Tags and groups go with the site (foreign keys cascade); tags first, as they refer to
+    // gateways. Changes are removed explicitly (their foreign key cannot cascade).
+    await Tag.destroy({ where: { siteId: site.id }, transaction });
+    await Change.destroy({ where: { siteId: site.id }, transaction });
     await Gateway.destroy({ where: { siteId: site.id }, transaction });
     await site.destroy({ transaction });
     await recordAudit(

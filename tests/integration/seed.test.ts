@@ -10,7 +10,7 @@ const seedersDir = path.resolve("seeders");
 
 async function counts() {
   const out: Record<string, number> = {};
-  for (const t of ["users", "sites", "gateways"]) {
+  for (const t of ["users", "sites", "gateways", "tags", "tag_groups", "tag_group_rules"]) {
     const [r] = await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM ${t}`, { type: QueryTypes.SELECT });
     out[t] = r.n;
   }
@@ -30,6 +30,18 @@ describe("demo seed", () => {
       expect(await counts()).toEqual(before);
     }
   }, 60_000);
+
+  it("holds at least 1,500 tags over the three plants, every kind present, ranges only on analog tags", async () => {
+    const rows = await sequelize.query<{ slug: string; kind: string; n: number; ranged: number }>(
+      "SELECT s.slug, t.kind, COUNT(*) AS n, SUM(t.eu_low IS NOT NULL) AS ranged FROM tags t JOIN sites s ON s.id = t.site_id WHERE s.slug IN ('fenwick-creamery','osterby-cheese','kestrel-ridge-powder') GROUP BY s.slug, t.kind",
+      { type: QueryTypes.SELECT },
+    );
+    expect(rows.reduce((a, r) => a + r.n, 0)).toBeGreaterThanOrEqual(1500);
+    for (const slug of ["fenwick-creamery", "osterby-cheese", "kestrel-ridge-powder"]) {
+      expect(rows.filter((r) => r.slug === slug).map((r) => r.kind).sort()).toEqual(["analog", "counter", "discrete"]);
+    }
+    for (const r of rows) expect(Number(r.ranged)).toBe(r.kind === "analog" ? r.n : 0);
+  });
 
   it("holds the three plants of the demo co-operative with their gateways", async () => {
     const sites = await sequelize.query<{ slug: string; n: number }>(

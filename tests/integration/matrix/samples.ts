@@ -1,17 +1,18 @@
 import { randomUUID } from "node:crypto";
-import type { Gateway, Site } from "@/models";
-import { createGateway, createSite, createUser } from "../../factories";
+import type { Gateway, Site, Tag } from "@/models";
+import { createGateway, createGroup, createSite, createTag, createUser } from "../../factories";
 
 // One valid request per route and one valid input per server action, so that an allowed
 // role gets a success and the matrix measures authorisation alone. Called once per role:
 // samples that create or delete records make fresh ones.
 
-export type Fixture = { site: Site; gateway: Gateway };
+export type Fixture = { site: Site; gateway: Gateway; tag: Tag };
 
 export async function makeFixture(): Promise<Fixture> {
   const site = await createSite();
   const gateway = await createGateway(site);
-  return { site, gateway };
+  const tag = await createTag(site, gateway);
+  return { site, gateway, tag };
 }
 
 const u = () => randomUUID().slice(0, 8);
@@ -24,6 +25,25 @@ export const siteBody = () => ({
   storagePricePerGbMonth: 0.02,
   retentionMonths: 12,
   defaultHandling: "pass-through",
+});
+
+export const tagBody = (gateway: string) => ({
+  name: `AREA/TT-${u()}/PV`,
+  unit: "degC",
+  samplePeriodMs: 1000,
+  kind: "analog",
+  euLow: 0,
+  euHigh: 150,
+  area: "AREA",
+  equipment: null,
+  gateway,
+});
+
+export const groupBody = () => ({
+  name: `group-${u()}`,
+  description: "",
+  regulated: false,
+  selector: { patterns: ["AREA/*/PV"], units: [], kinds: [], areas: [], equipment: [], gateways: [], minPeriodMs: null, maxPeriodMs: null, include: [], exclude: [] },
 });
 
 export const gatewayBody = () => ({ name: `Matrix gateway ${u()}`, slug: `mgw-${u()}`, description: "", pollSeconds: 60 });
@@ -74,6 +94,50 @@ export const ROUTE_SAMPLES: Record<string, RouteSample> = {
     const gw = await createGateway(fx.site);
     return { path: `/api/sites/${fx.site.slug}/gateways/${gw.slug}`, params: { site: fx.site.slug, gateway: gw.slug } };
   },
+  "GET /api/sites/[site]/tags": async (fx) => ({ path: `/api/sites/${fx.site.slug}/tags`, params: { site: fx.site.slug } }),
+  "POST /api/sites/[site]/tags": async (fx) => ({ path: `/api/sites/${fx.site.slug}/tags`, params: { site: fx.site.slug }, body: tagBody(fx.gateway.slug) }),
+  "DELETE /api/sites/[site]/tags": async (fx) => {
+    const tag = await createTag(fx.site, fx.gateway);
+    return { path: `/api/sites/${fx.site.slug}/tags`, params: { site: fx.site.slug }, body: { ids: [tag.id] } };
+  },
+  "PATCH /api/sites/[site]/tags/[tagId]": async (fx) => ({
+    path: `/api/sites/${fx.site.slug}/tags/${fx.tag.id}`,
+    params: { site: fx.site.slug, tagId: String(fx.tag.id) },
+    body: { ...tagBody(fx.gateway.slug), name: fx.tag.name, unit: "degF", euLow: 32, euHigh: 300 },
+  }),
+  "DELETE /api/sites/[site]/tags/[tagId]": async (fx) => {
+    const tag = await createTag(fx.site, fx.gateway);
+    return { path: "/", params: { site: fx.site.slug, tagId: String(tag.id) } };
+  },
+  "POST /api/sites/[site]/tags/import": async (fx) => ({
+    path: `/api/sites/${fx.site.slug}/tags/import`,
+    params: { site: fx.site.slug },
+    body: { rows: [tagBody(fx.gateway.slug)], dryRun: true },
+  }),
+  "GET /api/sites/[site]/tags/export": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
+  "GET /api/sites/[site]/groups": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
+  "POST /api/sites/[site]/groups": async (fx) => ({ path: "/", params: { site: fx.site.slug }, body: groupBody() }),
+  "GET /api/sites/[site]/groups/[groupId]": async (fx) => {
+    const g = await createGroup(fx.site);
+    return { path: "/", params: { site: fx.site.slug, groupId: String(g.id) } };
+  },
+  "PATCH /api/sites/[site]/groups/[groupId]": async (fx) => {
+    const g = await createGroup(fx.site);
+    return { path: "/", params: { site: fx.site.slug, groupId: String(g.id) }, body: groupBody() };
+  },
+  "DELETE /api/sites/[site]/groups/[groupId]": async (fx) => {
+    const g = await createGroup(fx.site);
+    return { path: "/", params: { site: fx.site.slug, groupId: String(g.id) } };
+  },
+  "PUT /api/sites/[site]/groups/order": async () => {
+    const site = await createSite();
+    const a = await createGroup(site);
+    const b = await createGroup(site);
+    return { path: "/", params: { site: site.slug }, body: { order: [b.id, a.id] } };
+  },
+  "POST /api/sites/[site]/groups/preview": async (fx) => ({ path: "/", params: { site: fx.site.slug }, body: { selector: groupBody().selector } }),
+  "GET /api/sites/[site]/coverage": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
+  "GET /api/sites/[site]/draft": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
 };
 
 export const ACTION_SAMPLES: Record<string, (fx: Fixture) => Promise<unknown>> = {

@@ -1,5 +1,4 @@
 import Link from "next/link";
-import { PageHeader } from "@/components/shell/page-header";
 import { GatewayForm } from "@/components/sites/gateway-form";
 import { EmptyState } from "@/components/ui/empty-state";
 import { currentActor } from "@/lib/auth/guard";
@@ -17,17 +16,13 @@ export default async function SitePage({ params }: Readonly<Props>) {
   const admin = !!actor && can(actor.role, "fleet.admin");
   return (
     <>
-      <PageHeader
-        title={site.name}
-        crumbs={[{ href: "/", label: "Overview" }, { href: "/sites", label: "Sites" }, { label: site.name }]}
-        actions={
-          admin ? (
-            <Link href={`/sites/${site.slug}/settings`} className="rounded-panel border border-panel-line bg-panel px-3 py-1.5 text-label font-medium hover:bg-panel-sunk">
-              Edit site settings
-            </Link>
-          ) : null
-        }
-      />
+      {admin ? (
+        <div className="mb-4 flex justify-end">
+          <Link href={`/sites/${site.slug}/settings`} className="rounded-panel border border-panel-line bg-panel px-3 py-1.5 text-label font-medium hover:bg-panel-sunk">
+            Edit site settings
+          </Link>
+        </div>
+      ) : null}
       <section aria-labelledby="site-settings" className="mb-8 rounded-panel border border-panel-line bg-panel p-4">
         <h2 id="site-settings" className="mb-3">
           Site settings

@@ -1,5 +1,4 @@
 import { Forbidden } from "@/components/shell/forbidden";
-import { PageHeader } from "@/components/shell/page-header";
 import { DeleteSiteButton } from "@/components/sites/delete-controls";
 import { SiteForm } from "@/components/sites/site-form";
 import { currentActor } from "@/lib/auth/guard";
@@ -13,7 +12,7 @@ type Props = { params: Promise<{ site: string }> };
 export default async function SiteSettingsPage({ params }: Readonly<Props>) {
   const { site: slug } = await params;
   const actor = await currentActor();
-  if (!actor || !can(actor.role, "fleet.admin")) return <Forbidden what="site settings" />;
+  if (!actor || !can(actor.role, "fleet.admin")) return <Forbidden what="site settings" level={2} />;
   const site = await orNotFound(getSite(actor, slug));
   const existing: SiteValues = {
     name: site.name,
@@ -26,15 +25,7 @@ export default async function SiteSettingsPage({ params }: Readonly<Props>) {
   };
   return (
     <>
-      <PageHeader
-        title={`Settings of ${site.name}`}
-        crumbs={[
-          { href: "/", label: "Overview" },
-          { href: "/sites", label: "Sites" },
-          { href: `/sites/${site.slug}`, label: site.name },
-          { label: "Settings" },
-        ]}
-      />
+      <h2 className="mb-4">Site settings</h2>
       <SiteForm timeZones={timeZones()} existing={existing} />
       <section aria-labelledby="danger" className="mt-10 max-w-3xl rounded-panel border border-fault/40 bg-panel p-4">
         <h2 id="danger" className="text-lead font-medium text-fault">

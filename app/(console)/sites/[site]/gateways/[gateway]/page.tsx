@@ -1,4 +1,4 @@
-import { PageHeader } from "@/components/shell/page-header";
+import Link from "next/link";
 import { DeleteGatewayButton } from "@/components/sites/delete-controls";
 import { GatewayForm } from "@/components/sites/gateway-form";
 import { currentActor } from "@/lib/auth/guard";
@@ -16,15 +16,13 @@ export default async function GatewayPage({ params }: Readonly<Props>) {
   const admin = !!actor && can(actor.role, "fleet.admin");
   return (
     <>
-      <PageHeader
-        title={gw.name}
-        crumbs={[
-          { href: "/", label: "Overview" },
-          { href: "/sites", label: "Sites" },
-          { href: `/sites/${site.slug}`, label: site.name },
-          { label: gw.name },
-        ]}
-      />
+      <nav aria-label="Breadcrumb" className="mb-1 text-micro text-ink-faint">
+        <Link href={`/sites/${site.slug}`} className="hover:underline">
+          Gateways
+        </Link>{" "}
+        › {gw.name}
+      </nav>
+      <h2 className="mb-4">{gw.name}</h2>
       <dl className="mb-8 grid max-w-3xl grid-cols-2 gap-x-4 gap-y-2 rounded-panel border border-panel-line bg-panel p-4 text-label">
         <dt className="text-ink-faint">Slug</dt>
         <dd className="font-mono">{gw.slug}</dd>
