@@ -126,7 +126,7 @@ function compileGlob(pattern: string): NameTest {
   if (first < 0) return { prefix: pattern, suffix: "", min: pattern.length, re: null, level: firstLevel(pattern) };
   let last = first;
   for (let i = first; i < pattern.length; i++) if (GLOB_SYNTAX.test(pattern[i])) last = i;
-  // `A/**` matches "A" and `**/B` matches "B": the slash next to a wildcard is not required.
+  // `**/B` matches "B": a slash next to a wildcard may not be required, so it is left out.
   const prefix = pattern.slice(0, first).replace(/\/$/, "");
   const suffix = pattern.slice(last + 1).replace(/^\//, "");
   // Every match has the same first level when the pattern spells it out before any glob syntax.
@@ -158,8 +158,9 @@ const toSet = <T>(list: readonly T[] | undefined): Set<T> | null => (list && lis
  * one with only an exclude list) matches nothing. A tag with no area or equipment fails a
  * non-empty area or equipment filter. Names, units and other values compare exactly
  * (case-sensitive). Patterns are picomatch globs on the whole name: `*` stays within one
- * `/` level, `**` as a whole level crosses levels (also zero levels: `A/**` matches `A`),
- * `?`, `[…]`, `[^…]`, `{a,b}` and extglobs work as in picomatch. Throws on a pattern that
+ * `/` level, `**` as a whole level stands for any number of levels, none included
+ * (`A/**` matches every name below `A`, not `A` itself); `?`, `[…]`, `[^…]`, `{a,b}` and
+ * extglobs work as in picomatch; `\` escapes a glob character. Throws on a pattern that
  * `patternProblem` refuses; values that passed `selectorSchema` never throw.
  */
 export function compileSelector(selector: SelectorLike): (tag: TagLike) => boolean {
