@@ -6,35 +6,45 @@
  */
 import { LTTB as downsampleLttb } from "downsample";
 import simplify from "simplify-js";
-import {
-  aggregate,
-  deadband,
-  exceedances,
-  ltob,
-  lttb,
-  m4,
-  measure,
-  rdp,
-  type Series,
-  swingingDoor,
-  timeAbove,
-} from "@/lib/reduction";
+import { aggregate, deadband, exceedances, ltob, lttb, m4, measure, rdp, swingingDoor, timeAbove } from "@/lib/reduction";
 import { benchSeries } from "./series";
-import { peakRssMb, time } from "./timing";
+import { heapGrowthMb, peakRssMb, roundRobin } from "./timing";
 
 const N = 1_000_000;
+const ROUNDS = 15;
+const WARMUPS = 4;
 const s = benchSeries(N);
 const { t, v } = s;
+const LTTB_POINTS = 75_000;
+const RDP_EPSILON = 0.65;
 
 type Case = {
   name: string;
   params: string;
   run: () => unknown;
-  /** Reference library for the same job, measured in the same run. */
-  ref?: { name: string; run: () => unknown };
-  /** Target: minimum Msamples/s or minimum speed-up over the reference. */
+  /** Target: minimum Msamples/s, or minimum speed-up over the reference. */
   target?: { msps?: number; speedup?: number };
+  /** The reference library for the same job, timed in the same rounds. */
+  ref?: Reference;
 };
+
+type Reference = { name: string; run: () => unknown; release: () => void };
+
+/**
+ * A reference library run on its own input format, built from the typed arrays once
+ * (not timed) and released after the timing, so that no case runs with another case's
+ * million objects alive on the heap.
+ */
+function reference<I>(name: string, build: () => I, run: (input: I) => unknown): Reference {
+  let input: I | undefined;
+  return {
+    name,
+    run: () => run((input ??= build())),
+    release: () => {
+      input = undefined;
+    },
+  };
+}
 
 // Plain scan: one pass reading both arrays (what validation alone costs).
 function scan(): number {
@@ -50,93 +60,101 @@ function scan(): number {
   return sum + bad;
 }
 
-const tuples: [number, number][] = Array.from(t, (x, i) => [x, v[i]]);
-const points = Array.from(t, (x, i) => ({ x, y: v[i] }));
-const LTTB_POINTS = 75_000;
-const RDP_EPSILON = 0.65;
-
+const W = 60_000;
 const cases: Case[] = [
+  { name: "plain scan loop", params: "read t and v once", run: scan },
   { name: "swinging door", params: "deviation 0.6", run: () => swingingDoor(s, { deviation: 0.6 }), target: { msps: 100 } },
   { name: "deadband", params: "deadband 0.55", run: () => deadband(s, { deadband: 0.55 }), target: { msps: 100 } },
+  { name: "mean", params: "window 60 s", run: () => aggregate(s, { windowMs: W, fn: "mean" }), target: { msps: 100 } },
   {
     name: "LTTB",
     params: `points ${LTTB_POINTS}`,
     run: () => lttb(s, { points: LTTB_POINTS }),
-    ref: { name: "downsample LTTB", run: () => downsampleLttb(tuples, LTTB_POINTS) },
     target: { speedup: 50 },
+    ref: reference(
+      "downsample LTTB",
+      () => Array.from(t, (x, i): [number, number] => [x, v[i]]),
+      (data) => downsampleLttb(data, LTTB_POINTS),
+    ),
   },
   { name: "LTOB", params: `points ${LTTB_POINTS}`, run: () => ltob(s, { points: LTTB_POINTS }) },
   {
     name: "RDP perpendicular",
     params: `epsilon ${RDP_EPSILON}`,
     run: () => rdp(s, { epsilon: RDP_EPSILON, distance: "perpendicular" }),
-    ref: { name: "simplify-js HQ", run: () => simplify(points, RDP_EPSILON, true) },
     target: { speedup: 2 },
+    ref: reference(
+      "simplify-js HQ",
+      () => Array.from(t, (x, i) => ({ x, y: v[i] })),
+      (data) => simplify(data, RDP_EPSILON, true),
+    ),
   },
   { name: "RDP vertical", params: `epsilon ${RDP_EPSILON}`, run: () => rdp(s, { epsilon: RDP_EPSILON }) },
-  { name: "M4", params: "window 60 s", run: () => m4(s, { windowMs: 60_000 }) },
-  { name: "mean", params: "window 60 s", run: () => aggregate(s, { windowMs: 60_000, fn: "mean" }), target: { msps: 100 } },
+  { name: "M4", params: "window 60 s", run: () => m4(s, { windowMs: W }) },
+  { name: "time-weighted mean", params: "window 60 s, linear", run: () => aggregate(s, { windowMs: W, fn: "timeWeightedMean" }) },
+  { name: "stdev (sample)", params: "window 60 s", run: () => aggregate(s, { windowMs: W, fn: "stdevSample" }) },
+  { name: "percentile 95", params: "window 60 s", run: () => aggregate(s, { windowMs: W, fn: "percentile", percentile: 95 }) },
   {
-    name: "time-weighted mean",
-    params: "window 60 s, linear",
-    run: () => aggregate(s, { windowMs: 60_000, fn: "timeWeightedMean" }),
+    name: "exceedances",
+    params: "window 60 s, > 55, hyst. 0.5",
+    run: () => exceedances(s, { windowMs: W, threshold: 55, hysteresis: 0.5 }),
   },
-  { name: "stdev (sample)", params: "window 60 s", run: () => aggregate(s, { windowMs: 60_000, fn: "stdevSample" }) },
-  { name: "percentile 95", params: "window 60 s", run: () => aggregate(s, { windowMs: 60_000, fn: "percentile", percentile: 95 }) },
-  { name: "exceedances", params: "window 60 s, > 55, hyst. 0.5", run: () => exceedances(s, { windowMs: 60_000, threshold: 55, hysteresis: 0.5 }) },
-  { name: "time above", params: "window 60 s, > 55", run: () => timeAbove(s, { windowMs: 60_000, threshold: 55 }) },
+  { name: "time above", params: "window 60 s, > 55", run: () => timeAbove(s, { windowMs: W, threshold: 55 }) },
 ];
+const reduced = rdp(s, { epsilon: RDP_EPSILON });
+cases.push({ name: "measure", params: "linear, of RDP vertical", run: () => measure(s, reduced, { reconstruction: "linear" }) });
 
-const scanTiming = time(scan, 25);
-const scanMs = scanTiming.bestMs;
-const fmt = (x: number, d = 1) => x.toFixed(d);
-const rows: string[][] = [];
-const verdicts: string[] = [];
-rows.push(["plain scan loop", "read t and v once", "", ms(scanTiming), fmt(N / scanMs / 1000), "1.0", "", fmt(scanTiming.heapMb)]);
-
+// Our cases, round-robin; then each reference with its own case, round-robin in pairs.
+const ours = roundRobin(
+  cases.map((c) => c.run),
+  ROUNDS,
+  WARMUPS,
+);
+const refs = new Map<Case, { mine: number; ref: number; refMedian: number; refHeap: number; same: string }>();
 for (const c of cases) {
-  const mine = time(c.run);
-  const msps = N / mine.bestMs / 1000;
-  const kept = mine.result instanceof Uint32Array ? `${fmt((100 * mine.result.length) / N, 2)} %` : "";
-  let refCell = "";
-  let speedup = NaN;
-  if (c.ref) {
-    const ref = time(c.ref.run, 7, 2);
-    speedup = ref.bestMs / mine.bestMs;
-    refCell = `${c.ref.name} ${fmt(ref.bestMs)} ms, ${fmt(ref.heapMb)} MB → ${fmt(speedup)}×`;
-    if (c.name.startsWith("RDP")) refCell += sameAsSimplify(mine.result as Uint32Array, ref.result) ? ", same points" : ", DIFFERENT points";
-  }
-  rows.push([c.name, c.params, kept, ms(mine), fmt(msps), fmt(mine.bestMs / scanMs), refCell, fmt(mine.heapMb)]);
-  if (c.target?.msps) verdicts.push(verdict(`${c.name} ≥ ${c.target.msps} Msamples/s`, msps >= c.target.msps, `${fmt(msps)}`));
-  if (c.target?.speedup) {
-    verdicts.push(verdict(`${c.name} ≥ ${c.target.speedup}× ${c.ref?.name}`, speedup >= c.target.speedup, `${fmt(speedup)}×`));
-  }
+  if (!c.ref) continue;
+  const [mine, ref] = roundRobin([c.run, c.ref.run], 7, 2);
+  const refHeap = heapGrowthMb(c.ref.run);
+  const same = c.name.startsWith("RDP") ? (samePoints(c.run() as Uint32Array, c.ref.run()) ? ", same points" : ", DIFFERENT points") : "";
+  c.ref.release();
+  refs.set(c, { mine: mine.bestMs, ref: ref.bestMs, refMedian: ref.medianMs, refHeap, same });
 }
 
-const reduced = rdp(s, { epsilon: RDP_EPSILON });
-const m = time(() => measure(s, reduced, { reconstruction: "linear" }));
-rows.push(["measure", "linear, RDP vertical output", "", ms(m), fmt(N / m.bestMs / 1000), fmt(m.bestMs / scanMs), "", fmt(m.heapMb)]);
+const fmt = (x: number, d = 1) => x.toFixed(d);
+const scanMs = ours[0].bestMs;
+const verdicts: string[] = [];
+const rows = cases.map((c, k) => {
+  const timing = ours[k];
+  const result = c.run();
+  const kept = result instanceof Uint32Array ? `${fmt((100 * result.length) / N, 2)} %` : "";
+  const msps = N / timing.bestMs / 1000;
+  let refCell = "";
+  const r = refs.get(c);
+  if (r) {
+    const speedup = r.ref / r.mine;
+    refCell = `${c.ref?.name} ${fmt(r.ref)} ms (${fmt(r.refMedian)}), ${fmt(r.refHeap)} MB → ${fmt(speedup)}×${r.same}`;
+    if (c.target?.speedup) verdicts.push(verdict(`${c.name} ≥ ${c.target.speedup}× ${c.ref?.name}`, speedup >= c.target.speedup, `${fmt(speedup)}×`));
+  }
+  if (c.target?.msps) verdicts.push(verdict(`${c.name} ≥ ${c.target.msps} Msamples/s`, msps >= c.target.msps, fmt(msps)));
+  const heap = heapGrowthMb(c.run);
+  return [c.name, c.params, kept, `${fmt(timing.bestMs, 2)} (${fmt(timing.medianMs, 2)})`, fmt(msps), fmt(timing.bestMs / scanMs), refCell, fmt(heap)];
+});
 
-const header = ["method", "parameters", "kept", "ms best (median)", "Msamples/s", "× scan", "reference, same run", "heap MB"];
-printTable(header, rows);
-console.log(`\n${N.toLocaleString("en")} samples, noisy random walk + 6 h oscillation + rare spikes, ~1 s irregular sampling.`);
-console.log(`Node ${process.version}; best and median of 15 runs after 5 warm-ups (references: 7 after 2); speeds and ratios use the best.`);
-console.log("heap MB = V8 heap + ArrayBuffers grown by one run, measured after it (before any further GC).");
+printTable(["method", "parameters", "kept", "ms best (median)", "Msamples/s", "× scan", "reference, same run: best (median)", "heap MB"], rows);
+console.log(`\n${N.toLocaleString("en")} samples: noisy random walk + 6 h oscillation + rare spikes, ~1 s irregular sampling.`);
+console.log(`Node ${process.version}. Time of a run = min(wall, process CPU). ${ROUNDS} round-robin rounds after ${WARMUPS} warm-ups;`);
+console.log("references: 7 rounds alternating with our method after 2 warm-ups. Speeds and ratios use the best run.");
+console.log("heap MB = V8 heap + ArrayBuffers grown by one run, measured right after it (after a full GC before it).");
 console.log(`Process peak RSS: ${fmt(peakRssMb(), 0)} MB (includes the reference libraries' point objects).\n`);
 for (const line of verdicts) console.log(line);
-
-function ms(x: { bestMs: number; medianMs: number }): string {
-  return `${fmt(x.bestMs, 2)} (${fmt(x.medianMs, 2)})`;
-}
 
 function verdict(what: string, ok: boolean, value: string): string {
   return `${ok ? "met    " : "NOT met"}  ${what}: ${value}`;
 }
 
-function sameAsSimplify(mine: Uint32Array, ref: unknown): boolean {
+function samePoints(mine: Uint32Array, ref: unknown): boolean {
   const kept = ref as { x: number }[];
-  if (kept.length !== mine.length) return false;
-  return kept.every((p, k) => p.x === t[mine[k]]);
+  return kept.length === mine.length && kept.every((p, k) => p.x === t[mine[k]]);
 }
 
 function printTable(head: string[], body: string[][]): void {
@@ -146,5 +164,3 @@ function printTable(head: string[], body: string[][]): void {
   console.log(`| ${widths.map((w) => "-".repeat(w)).join(" | ")} |`);
   for (const r of body) console.log(line(r));
 }
-
-export type { Series };

@@ -39,7 +39,7 @@ export function rdp(s: Series, p: RdpParams): Uint32Array {
   const n = t.length;
   if (n <= 2) return allIndices(n);
 
-  const c = rdpContext(t, v, blockEnvelopes(v), epsilon);
+  const c = rdpContext(t, v, blockEnvelopes(t, v), epsilon);
   const keep = new Uint8Array(n);
   const count = simplifyInto(c, distance === "vertical" ? farthestVertical : farthestPerpendicular, keep);
   return indicesFromMask(keep, count);

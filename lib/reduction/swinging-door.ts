@@ -47,7 +47,6 @@ export function swingingDoor(s: Series, p: SwingingDoorParams): Uint32Array {
 }
 
 const OPEN = Number.MAX_VALUE;
-const SURE = 2 ** -47;
 
 /**
  * The scan, checking order and finiteness as it goes; returns the last anchor, or −1
@@ -75,31 +74,21 @@ function swingFast(t: Float64Array, v: Float64Array, deviation: number, maxInter
     const vi = v[i];
     if (!(ti > tPrev)) return -1;
     tPrev = ti;
-    // The candidate is sample i − 1 whenever it is not the anchor itself (then the
-    // corridor is still OPEN and takes no part in a comparison).
-    let dt = ti - ta;
-    let dv = vi - va;
-    if (i - 1 > anchor) {
-      // Is dv/dt outside [lower, upper]? Decided by multiplication where the answer is
-      // certain (a margin of 2⁻⁴⁷ relative, far above rounding), by the division where
-      // it is not — so the outcome equals the plain test on the rounded slope.
-      const hu = upper * dt;
-      const hl = lower * dt;
-      if (dt > maxInterval || !(dv - hu <= -SURE * Math.abs(hu) && hl - dv <= -SURE * Math.abs(hl))) {
-        const slope = dv / dt;
-        if (dt > maxInterval || !(slope <= upper && slope >= lower)) {
-          if (slope - slope + (upper - upper) + (lower - lower) !== 0) return -1;
-          anchor = i - 1;
-          kept.push(anchor);
-          ta = t[anchor];
-          va = v[anchor];
-          upper = OPEN;
-          lower = -OPEN;
-          dt = ti - ta;
-          dv = vi - va;
-        }
-      }
+    // The candidate is sample i − 1 whenever it is not the anchor itself. Right after a
+    // new anchor the corridor is OPEN and holds every finite slope, so the test needs no
+    // guard for that case; only the max interval does.
+    const slope = (vi - va) / (ti - ta);
+    if ((ti - ta > maxInterval && i - 1 > anchor) || !(slope <= upper && slope >= lower)) {
+      if (slope - slope + (upper - upper) + (lower - lower) !== 0) return -1;
+      anchor = i - 1;
+      kept.push(anchor);
+      ta = t[anchor];
+      va = v[anchor];
+      upper = OPEN;
+      lower = -OPEN;
     }
+    const dt = ti - ta;
+    const dv = vi - va;
     const up = (dv + deviation) / dt;
     const lo = (dv - deviation) / dt;
     const fu = +(up < upper);

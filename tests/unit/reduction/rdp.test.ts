@@ -98,6 +98,23 @@ describe("rdp perpendicular — exactly the points of simplify-js with highQuali
     }
   });
 
+  it("with exact ties between distances (the first farthest sample wins, as in simplify-js)", () => {
+    // A square wave: many samples at exactly the same distance from a segment.
+    for (const [start, step] of [
+      [0, 1],
+      [1.7e12, 1000],
+    ]) {
+      const n = 4_000;
+      const t = Array.from({ length: n }, (_, i) => start + i * step);
+      const v = Array.from({ length: n }, (_, i) => [0, 1, 0, -1][i % 4] * 3 + (i % 400 === 0 ? 7 : 0));
+      const s = series(t, v);
+      for (const epsilon of [0.5, 2.5, 5]) {
+        expect(ints(rdp(s, { epsilon, distance: "perpendicular" }))).toEqual(simplifyIndices(s, epsilon));
+        expect(ints(rdp(s, { epsilon }))).toEqual(referenceVertical(s, epsilon));
+      }
+    }
+  });
+
   it("on large values with tiny noise (rounding near the skipping margin)", () => {
     const rand = mulberry32(77);
     const n = 30_000;
