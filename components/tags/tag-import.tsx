@@ -205,7 +205,7 @@ export function TagImport({ site, gateways }: Readonly<Props>) {
       ) : null}
 
       {done ? (
-        <section role="status" className="rounded-panel border border-ok bg-ok-soft p-4 text-label">
+        <section role="status" data-testid="import-done" className="rounded-panel border border-ok bg-ok-soft p-4 text-label">
           Imported: {done.added.length} added, {done.updated.length} updated, {done.removed.length} removed.{" "}
           <Link href={`/sites/${site}/tags`} className="font-medium underline">
             Back to the inventory

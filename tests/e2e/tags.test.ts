@@ -41,7 +41,7 @@ describe("tag inventory and groups in the browser", () => {
     const bad3 = `PAST1/TT-102/PV;degC;1000;analog;150;0;PAST1;HX-01;${gateway}`;
     const good3 = `PAST1/TT-102/PV;degC;1000;analog;0;150;PAST1;HX-01;${gateway}`;
     const line4 = `CIP1/FT-201/PV;m3/h;1000;analog;0;60;CIP1;CS-01;${gateway}`;
-    await page.getByLabel("CSV file").setInputFiles(csvFile([header, line2, bad3, line4].join("\n")));
+    await page.getByLabel("CSV file", { exact: true }).setInputFiles(csvFile([header, line2, bad3, line4].join("\n")));
     await page.getByRole("button", { name: "Check the file" }).click();
     const problems = page.getByRole("list", { name: "Bad rows" });
     await problems.waitFor();
@@ -50,12 +50,12 @@ describe("tag inventory and groups in the browser", () => {
     expect(text?.toLowerCase()).toMatch(/low|high/);
     await screenshot(page, "import-bad-row");
 
-    await page.getByLabel("CSV file").setInputFiles(csvFile([header, line2, good3, line4].join("\n")));
+    await page.getByLabel("CSV file", { exact: true }).setInputFiles(csvFile([header, line2, good3, line4].join("\n")));
     await page.getByRole("button", { name: "Check the file" }).click();
     await page.getByTestId("import-plan").waitFor();
     expect(await page.getByTestId("import-plan").textContent()).toContain("3 new");
     await page.getByRole("button", { name: "Import", exact: true }).click();
-    await page.getByText("Imported: 3 added").waitFor();
+    await page.getByTestId("import-done").filter({ hasText: "Imported: 3 added" }).waitFor();
 
     await page.goto(`${BASE_URL}/sites/${slug}/tags`);
     await page.getByTestId("tag-count").filter({ hasText: "3 of 3 tags" }).waitFor();
