@@ -4,6 +4,7 @@ import { timeWeightedMean } from "./time-average";
 import * as stats from "./window-stats";
 import { splitWindows, type WindowParams, windowParams, type Windows } from "./windows";
 
+/** The window statistics `aggregate` computes (OPC UA Part 13 names in its JSDoc). */
 export const AGGREGATE_FNS = [
   "mean",
   "timeWeightedMean",

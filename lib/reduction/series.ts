@@ -22,8 +22,8 @@ export class SeriesError extends Error {
 }
 
 /**
- * Checks a series in one pass and throws a {@link SeriesError} naming the first bad
- * index: lengths must agree, timestamps must be finite and strictly ascending (an
+ * Checks a series in one pass (common practice; no published source) and throws a
+ * {@link SeriesError} naming the first bad index: lengths must agree, timestamps must be finite and strictly ascending (an
  * unsorted or duplicate timestamp is reported at the later sample), values finite,
  * qualities 0–2. Empty and one-sample series are valid.
  */
