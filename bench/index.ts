@@ -8,7 +8,7 @@ import { LTTB as downsampleLttb } from "downsample";
 import simplify from "simplify-js";
 import { aggregate, deadband, exceedances, ltob, lttb, m4, measure, rdp, swingingDoor, timeAbove } from "@/lib/reduction";
 import { benchSeries } from "./series";
-import { heapGrowthMb, peakRssMb, roundRobin } from "./timing";
+import { heapGrowthMb, peakRssMb, roundRobin, timeOnce } from "./timing";
 
 const N = 1_000_000;
 const ROUNDS = 15;
@@ -28,7 +28,7 @@ type Case = {
   ref?: Reference;
 };
 
-type Reference = { name: string; run: () => unknown; release: () => void };
+type Reference = { name: string; run: () => unknown; release: () => void; buildMs: () => number };
 
 /**
  * A reference library run on its own input format, built from the typed arrays once
@@ -43,6 +43,7 @@ function reference<I>(name: string, build: () => I, run: (input: I) => unknown):
     release: () => {
       input = undefined;
     },
+    buildMs: () => Math.min(...[0, 1, 2].map(() => timeOnce(build))),
   };
 }
 
@@ -63,7 +64,7 @@ function scan(): number {
 const W = 60_000;
 const cases: Case[] = [
   { name: "plain scan loop", params: "read t and v once", run: scan },
-  { name: "swinging door", params: "deviation 0.6", run: () => swingingDoor(s, { deviation: 0.6 }), target: { msps: 100 } },
+  { name: "swinging door", params: "deviation 0.62", run: () => swingingDoor(s, { deviation: 0.62 }), target: { msps: 100 } },
   { name: "deadband", params: "deadband 0.55", run: () => deadband(s, { deadband: 0.55 }), target: { msps: 100 } },
   { name: "mean", params: "window 60 s", run: () => aggregate(s, { windowMs: W, fn: "mean" }), target: { msps: 100 } },
   {
@@ -110,14 +111,14 @@ const ours = roundRobin(
   ROUNDS,
   WARMUPS,
 );
-const refs = new Map<Case, { mine: number; ref: number; refMedian: number; refHeap: number; same: string }>();
+const refs = new Map<Case, { mine: number; ref: number; refMedian: number; refHeap: number; same: string; build: number }>();
 for (const c of cases) {
   if (!c.ref) continue;
   const [mine, ref] = roundRobin([c.run, c.ref.run], 7, 2);
   const refHeap = heapGrowthMb(c.ref.run);
   const same = c.name.startsWith("RDP") ? (samePoints(c.run() as Uint32Array, c.ref.run()) ? ", same points" : ", DIFFERENT points") : "";
   c.ref.release();
-  refs.set(c, { mine: mine.bestMs, ref: ref.bestMs, refMedian: ref.medianMs, refHeap, same });
+  refs.set(c, { mine: mine.bestMs, ref: ref.bestMs, refMedian: ref.medianMs, refHeap, same, build: c.ref.buildMs() });
 }
 
 const fmt = (x: number, d = 1) => x.toFixed(d);
@@ -133,7 +134,10 @@ const rows = cases.map((c, k) => {
   if (r) {
     const speedup = r.ref / r.mine;
     refCell = `${c.ref?.name} ${fmt(r.ref)} ms (${fmt(r.refMedian)}), ${fmt(r.refHeap)} MB → ${fmt(speedup)}×${r.same}`;
-    if (c.target?.speedup) verdicts.push(verdict(`${c.name} ≥ ${c.target.speedup}× ${c.ref?.name}`, speedup >= c.target.speedup, `${fmt(speedup)}×`));
+    const withInput = `${fmt((r.ref + r.build) / r.mine)}× if building its input from the typed arrays (${fmt(r.build)} ms) is counted`;
+    if (c.target?.speedup) {
+      verdicts.push(verdict(`${c.name} ≥ ${c.target.speedup}× ${c.ref?.name}`, speedup >= c.target.speedup, `${fmt(speedup)}× (${withInput})`));
+    }
   }
   if (c.target?.msps) verdicts.push(verdict(`${c.name} ≥ ${c.target.msps} Msamples/s`, msps >= c.target.msps, fmt(msps)));
   const heap = heapGrowthMb(c.run);

@@ -23,9 +23,9 @@ export class SeriesError extends Error {
 
 /**
  * Checks a series in one pass (common practice; no published source) and throws a
- * {@link SeriesError} naming the first bad index: lengths must agree, timestamps must be finite and strictly ascending (an
- * unsorted or duplicate timestamp is reported at the later sample), values finite,
- * qualities 0–2. Empty and one-sample series are valid.
+ * {@link SeriesError} naming the first bad index: lengths must agree, timestamps must
+ * be finite and strictly ascending (an unsorted or duplicate timestamp is reported at
+ * the later sample), values finite, qualities 0–2. Empty and one-sample series are valid.
  */
 export function validateSeries(s: Series): void {
   checkShape(s);
@@ -35,9 +35,9 @@ export function validateSeries(s: Series): void {
 
 /**
  * The O(1) part of {@link validateSeries} plus the quality check: array types, lengths,
- * a finite first and last sample. Methods whose scan checks order and
- * finiteness as it goes call this first and {@link failValidation} when their scan
- * stops, instead of reading the arrays one extra time.
+ * a finite first and last sample. Methods whose scan checks order and finiteness as it
+ * goes call this first and {@link failValidation} when their scan stops, instead of
+ * reading the arrays one extra time.
  */
 export function checkShape(s: Series): void {
   const { t, v, q } = s;
