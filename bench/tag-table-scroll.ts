@@ -44,33 +44,38 @@ async function seedSite() {
 type Scroll = { longTasks: number; maxMs: number; totalMs: number; frames: number; seconds: number };
 
 /** Scrolls `selector` from top to bottom, 600 px per frame, and collects long tasks meanwhile. */
-async function scrollAndMeasure(page: Page, selector: string): Promise<Scroll> {
-  return page.evaluate(async (sel) => {
-    const el = document.querySelector(sel) as HTMLElement;
-    const tasks: number[] = [];
-    const obs = new PerformanceObserver((list) => list.getEntries().forEach((e) => tasks.push(e.duration)));
-    obs.observe({ type: "longtask" });
-    const t0 = performance.now();
-    let frames = 0;
-    await new Promise<void>((resolve) => {
-      const step = () => {
-        frames++;
-        el.scrollTop += 600;
-        if (el.scrollTop + el.clientHeight >= el.scrollHeight - 1) resolve();
-        else requestAnimationFrame(step);
-      };
-      requestAnimationFrame(step);
-    });
-    await new Promise((r) => setTimeout(r, 300));
-    obs.disconnect();
-    return {
-      longTasks: tasks.length,
-      maxMs: tasks.length ? Math.max(...tasks) : 0,
-      totalMs: tasks.reduce((a, b) => a + b, 0),
-      frames,
-      seconds: (performance.now() - t0) / 1000,
+// In-page code as plain text: the TypeScript runner would otherwise wrap named functions
+// with a helper that does not exist inside the page.
+const SCROLL_SCRIPT = `async (sel) => {
+  const el = document.querySelector(sel);
+  const tasks = [];
+  const obs = new PerformanceObserver((list) => list.getEntries().forEach((e) => tasks.push(e.duration)));
+  obs.observe({ type: "longtask" });
+  const t0 = performance.now();
+  let frames = 0;
+  await new Promise((resolve) => {
+    const step = () => {
+      frames++;
+      el.scrollTop += 600;
+      if (el.scrollTop + el.clientHeight >= el.scrollHeight - 1) resolve();
+      else requestAnimationFrame(step);
     };
-  }, selector);
+    requestAnimationFrame(step);
+  });
+  await new Promise((r) => setTimeout(r, 300));
+  obs.disconnect();
+  return {
+    longTasks: tasks.length,
+    maxMs: tasks.length ? Math.max(...tasks) : 0,
+    totalMs: tasks.reduce((a, b) => a + b, 0),
+    frames,
+    seconds: (performance.now() - t0) / 1000,
+  };
+}`;
+
+/** Scrolls `selector` from top to bottom, 600 px per frame, and collects long tasks meanwhile. */
+async function scrollAndMeasure(page: Page, selector: string): Promise<Scroll> {
+  return page.evaluate(`(${SCROLL_SCRIPT})(${JSON.stringify(selector)})`) as Promise<Scroll>;
 }
 
 async function main() {
@@ -91,18 +96,16 @@ async function main() {
   const loadSeconds = (Date.now() - t0) / 1000;
   await page.waitForTimeout(500);
   const app = await scrollAndMeasure(page, '[data-testid="tag-scroller"]');
-  const appDom = await page.evaluate(() => document.querySelectorAll('[data-testid="tag-scroller"] [role="row"]').length);
+  const appDom = (await page.evaluate(`document.querySelectorAll('[data-testid="tag-scroller"] [role="row"]').length`)) as number;
 
   // Reference: the same rows as a plain table, every row in the DOM.
-  const rows = await page.evaluate(async (slug) => {
-    const out: string[] = [];
-    for (let offset = 0; ; offset += 20000) {
-      const page = await (await fetch(`/api/sites/${slug}/tags?offset=${offset}&limit=20000`)).json();
-      for (const t of page.tags) out.push(`<tr><td>${t.name}</td><td>${t.unit}</td><td>${t.samplePeriodMs}</td><td>${t.kind}</td><td>${t.area}</td><td>${t.equipment}</td><td>${t.gateway}</td></tr>`);
-      if (offset + page.tags.length >= page.total) break;
-    }
-    return out;
-  }, SLUG);
+  const rows: string[] = [];
+  for (let offset = 0; ; offset += 20000) {
+    const res = await page.request.get(`${BASE}/api/sites/${SLUG}/tags?offset=${offset}&limit=20000`);
+    const body = (await res.json()) as { tags: Record<string, unknown>[]; total: number };
+    for (const t of body.tags) rows.push(`<tr><td>${t.name}</td><td>${t.unit}</td><td>${t.samplePeriodMs}</td><td>${t.kind}</td><td>${t.area}</td><td>${t.equipment}</td><td>${t.gateway}</td></tr>`);
+    if (offset + body.tags.length >= body.total) break;
+  }
   const ref = await browser.newPage({ viewport: { width: 1400, height: 900 } });
   const t1 = Date.now();
   await ref.setContent(`<div id="s" style="height:65vh;overflow:auto"><table>${rows.join("")}</table></div>`);
