@@ -5,7 +5,7 @@
  */
 import type { Series } from "@/lib/reduction";
 
-/** Mulberry32 (T. Ettinger, public domain): small, fast, good enough for test data. */
+/** Mulberry32 (T. Ettinger, public domain — attribution from memory): small, fast, good enough for test data. */
 export function mulberry32(seed: number): () => number {
   let a = seed >>> 0;
   return () => {

@@ -78,7 +78,8 @@ function keepOutsideBand(t: Float64Array, v: Float64Array, band: number, maxInte
 
 /**
  * Converts a percent deadband to an absolute one — OPC UA Part 8 (Data Access),
- * PercentDeadband: deadband = (percent / 100) × (EURange.high − EURange.low).
+ * PercentDeadband: deadband = (percent / 100) × (EURange.high − EURange.low) (formula
+ * as recalled from the specification, and as DESIGN.md states it).
  * Throws when percent is outside 0–100 or low ≥ high.
  */
 export function percentOfRange(percent: number, low: number, high: number): number {

@@ -93,11 +93,12 @@ function fillLttb(t: Float64Array, v: Float64Array, out: Uint32Array, every: num
 }
 
 /**
- * Largest-Triangle-One-Bucket — Steinarsson 2013 (thesis, section on LTOB): rank every
- * sample by its effective area, the triangle it forms with its two neighbours
- * (Visvalingam–Whyatt's measure), split the samples into the same buckets as LTTB
- * (first and last samples alone in their own buckets) and keep the highest-ranked
- * sample of each bucket (the first one on a tie).
+ * Largest-Triangle-One-Bucket — Steinarsson 2013 (thesis, section on LTOB; described
+ * here from memory): rank every sample by its effective area, the triangle it forms with
+ * its two neighbours (Visvalingam–Whyatt's measure), split the samples into the same
+ * buckets as LTTB (first and last samples alone in their own buckets) and keep the
+ * highest-ranked sample of each bucket (the first one on a tie). The `downsample` npm
+ * package's LTOB splits its buckets differently and is not used as a reference.
  *
  * @returns kept indices, ascending; all indices when `points` ≥ the sample count.
  */

@@ -1,7 +1,7 @@
 /** Test helpers: a seeded PRNG and series builders (deterministic for a given seed). */
 import type { Series } from "@/lib/reduction";
 
-/** Mulberry32 (T. Ettinger, public domain): a small seeded PRNG returning [0, 1). */
+/** Mulberry32 (T. Ettinger, public domain — attribution from memory): a small seeded PRNG returning [0, 1). */
 export function mulberry32(seed: number): () => number {
   let a = seed >>> 0;
   return () => {
