@@ -105,8 +105,10 @@ export function patternProblem(pattern: string): string | null {
 const GLOB_SYNTAX = /[*?[\]{}()!+@\\]/;
 
 /**
- * A compiled glob: the regular expression, guarded by the literal text every match must
- * start and end with (a cheap check that rejects most names before the regex runs).
+ * A compiled glob: the regular expression (null for a pattern without glob syntax, which
+ * matches by equality), guarded by the literal text every match must start and end with,
+ * and the first level every match has when the pattern spells it out (lets `assignGroups`
+ * look only at tags with that first level).
  */
 type NameTest = { prefix: string; suffix: string; min: number; re: RegExp | null; level: string | null };
 
