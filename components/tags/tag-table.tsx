@@ -1,6 +1,7 @@
 "use client";
 
 import {
+  type Row,
   createColumnHelper,
   flexRender,
   getCoreRowModel,
@@ -12,7 +13,7 @@ import {
   type SortingState,
 } from "@tanstack/react-table";
 import { useVirtualizer } from "@tanstack/react-virtual";
-import { useMemo, useRef, useState } from "react";
+import { memo, useCallback, useMemo, useRef, useState } from "react";
 import { toast } from "sonner";
 import { ConfirmButton } from "@/components/ui/confirm-button";
 import { inputClass } from "@/components/ui/field";
@@ -24,12 +25,20 @@ import { useSiteTags, type TagRow } from "./use-site-tags";
 type Props = { site: string; gateways: string[]; canEdit: boolean };
 
 const ROW_HEIGHT = 36;
-const GRID = "2.25rem minmax(14rem,2.4fr) 5rem 6rem 6rem 9rem minmax(6rem,1fr) minmax(6rem,1fr) 7rem 4.5rem";
+// More slots than rows ever on screen (viewport plus overscan), so no two visible rows share a key.
+const SLOTS = 128;
+// Fixed column widths (rem): cheap to lay out when a whole screen of rows changes per frame.
+const WIDTHS = [2.25, 17, 5, 6, 6, 9, 8, 8, 7, 4.5];
+const ROW_WIDTH = `${WIDTHS.reduce((a, b) => a + b, 0)}rem`;
+const GRID = WIDTHS.map((w) => `${w}rem`).join(" ");
 const col = createColumnHelper<TagRow>();
 
 export function formatPeriod(ms: number) {
   return ms >= 1000 && ms % 1000 === 0 ? `${ms / 1000} s` : `${ms} ms`;
 }
+
+// Stable across renders: a new function would make the virtualizer re-measure all rows.
+const rowHeight = () => ROW_HEIGHT;
 
 const includes = (v: unknown, q: string) => typeof v === "string" && v.toLowerCase().includes(q);
 
@@ -101,10 +110,12 @@ export function TagTable({ site, gateways, canEdit }: Readonly<Props>) {
 
   const rows = table.getRowModel().rows;
   const scroller = useRef<HTMLDivElement>(null);
-  const virtual = useVirtualizer({ count: rows.length, getScrollElement: () => scroller.current, estimateSize: () => ROW_HEIGHT, overscan: 20 });
+  const virtual = useVirtualizer({ count: rows.length, getScrollElement: () => scroller.current, estimateSize: rowHeight, overscan: 6 });
   const selectedIds = Object.keys(selection).filter((k) => selection[k]).map(Number);
   const filterValue = (id: string) => (filters.find((f) => f.id === id)?.value as string | undefined) ?? "";
   const setFilter = (id: string, value: string) => setFilters((fs) => [...fs.filter((f) => f.id !== id), ...(value ? [{ id, value }] : [])]);
+
+  const startEdit = useCallback((id: number) => setEditing(id), []);
 
   async function deleteSelected() {
     try {
@@ -158,7 +169,7 @@ export function TagTable({ site, gateways, canEdit }: Readonly<Props>) {
       </div>
 
       <div role="table" aria-label="Tag inventory" aria-rowcount={rows.length + 1} className="overflow-x-auto rounded-panel border border-panel-line bg-panel">
-        <div className="min-w-[64rem]">
+        <div style={{ minWidth: ROW_WIDTH }}>
           <div role="row" className="grid border-b border-panel-line bg-panel-sunk" style={{ gridTemplateColumns: GRID }}>
             {table.getHeaderGroups()[0].headers.map((h) => {
               const sorted = h.column.getIsSorted();
@@ -207,23 +218,9 @@ export function TagTable({ site, gateways, canEdit }: Readonly<Props>) {
                     />
                   );
                 }
-                return (
-                  <div key={t.id} role="row" aria-rowindex={item.index + 2} className="grid items-center border-b border-panel-line text-label hover:bg-weir-50" style={style}>
-                    {row.getVisibleCells().map((cell) => (
-                      <div key={cell.id} role="cell" className="truncate px-2">
-                        {cell.column.id === "actions" ? (
-                          canEdit ? (
-                            <button type="button" className="text-weir-600 hover:underline" aria-label={`Edit ${t.name}`} onClick={() => setEditing(t.id)}>
-                              Edit
-                            </button>
-                          ) : null
-                        ) : (
-                          flexRender(cell.column.columnDef.cell, cell.getContext())
-                        )}
-                      </div>
-                    ))}
-                  </div>
-                );
+                // Keyed by slot, not by tag: scrolling reuses the same row elements and only
+                // changes their text, instead of creating a screenful of new elements per frame.
+                return <TagRowView key={`slot-${item.index % SLOTS}`} row={row} index={item.index} start={item.start} canEdit={canEdit} onEdit={startEdit} selected={row.getIsSelected()} />;
               })}
             </div>
           </div>
@@ -232,3 +229,28 @@ export function TagTable({ site, gateways, canEdit }: Readonly<Props>) {
     </div>
   );
 }
+
+type RowProps = { row: Row<TagRow>; index: number; start: number; canEdit: boolean; selected: boolean; onEdit: (id: number) => void };
+
+/** One visible row; memoised so that scrolling renders only the rows that come into view. */
+const TagRowView = memo(function TagRowView({ row, index, start, canEdit, onEdit }: Readonly<RowProps>) {
+  const t = row.original;
+  const style = { position: "absolute" as const, top: 0, left: 0, width: ROW_WIDTH, height: ROW_HEIGHT, transform: `translateY(${start}px)`, contain: "strict" as const };
+  return (
+    <div role="row" aria-rowindex={index + 2} className="flex items-center border-b border-panel-line text-label hover:bg-weir-50" style={style}>
+      {row.getVisibleCells().map((cell, i) => (
+        <div key={cell.column.id} role="cell" className="truncate px-2" style={{ width: `${WIDTHS[i]}rem`, flex: "none" }}>
+          {cell.column.id === "actions" ? (
+            canEdit ? (
+              <button type="button" className="text-weir-600 hover:underline" aria-label={`Edit ${t.name}`} onClick={() => onEdit(t.id)}>
+                Edit
+              </button>
+            ) : null
+          ) : (
+            flexRender(cell.column.columnDef.cell, cell.getContext())
+          )}
+        </div>
+      ))}
+    </div>
+  );
+});

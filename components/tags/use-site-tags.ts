@@ -1,6 +1,6 @@
 "use client";
 
-import { useEffect } from "react";
+import { useEffect, useRef } from "react";
 import useSWRInfinite from "swr/infinite";
 import { fetcher } from "@/lib/client/api";
 import type { TagValues } from "@/schemas/tag";
@@ -21,7 +21,13 @@ export function useSiteTags(site: string) {
     { revalidateFirstPage: false, revalidateOnFocus: false },
   );
   const total = data?.[0]?.total ?? 0;
-  const tags = data?.flatMap((p) => p.tags) ?? [];
+  // One array per set of pages, not per render: the table rebuilds all its rows when this
+  // changes, so a new array must mean new content (a page loaded or revalidated).
+  const cache = useRef<{ pages: TagRow[][]; tags: TagRow[] }>({ pages: [], tags: [] });
+  const pages = data?.map((p) => p.tags) ?? [];
+  const same = pages.length === cache.current.pages.length && pages.every((p, i) => p === cache.current.pages[i]);
+  if (!same) cache.current = { pages, tags: pages.flat() };
+  const tags = cache.current.tags;
   const complete = !!data && tags.length >= total;
   // Keep asking for the next page until the whole inventory is here.
   useEffect(() => {

@@ -21,7 +21,9 @@ async function gatewayMaps(siteId: number, transaction?: Transaction) {
   return { idOf: new Map(gws.map((g) => [g.slug, g.id])), slugOf: new Map(gws.map((g) => [g.id, g.slug])) };
 }
 
-function present(t: Tag, slugOf: Map<number, string>): TagView {
+type TagRowData = Pick<Tag, "id" | "name" | "unit" | "samplePeriodMs" | "kind" | "euLow" | "euHigh" | "area" | "equipment" | "gatewayId">;
+
+function present(t: TagRowData, slugOf: Map<number, string>): TagView {
   return {
     id: t.id,
     name: t.name,
@@ -56,7 +58,8 @@ export async function listTags(actor: Actor | null, siteSlug: string, opts: { of
   const limit = Math.min(Math.max(opts.limit ?? 10_000, 1), 20_000);
   const offset = Math.max(opts.offset ?? 0, 0);
   const [rows, total] = await Promise.all([
-    Tag.findAll({ where: { siteId: site.id }, order: [["name", "ASC"]], offset, limit }),
+    // Plain rows, not model instances: tens of thousands of them per request.
+    Tag.findAll({ where: { siteId: site.id }, order: [["name", "ASC"]], offset, limit, raw: true }) as unknown as Promise<TagRowData[]>,
     Tag.count({ where: { siteId: site.id } }),
   ]);
   return { tags: rows.map((t) => present(t, slugOf)), total, offset, limit };
@@ -65,7 +68,7 @@ export async function listTags(actor: Actor | null, siteSlug: string, opts: { of
 /** The whole inventory of a site as plain values (for selectors, export and coverage). */
 export async function allTagValues(siteId: number, transaction?: Transaction): Promise<TagView[]> {
   const { slugOf } = await gatewayMaps(siteId, transaction);
-  const rows = await Tag.findAll({ where: { siteId }, order: [["name", "ASC"]], transaction });
+  const rows = (await Tag.findAll({ where: { siteId }, order: [["name", "ASC"]], transaction, raw: true })) as unknown as TagRowData[];
   return rows.map((t) => present(t, slugOf));
 }
 
