@@ -1,8 +1,10 @@
 import { requireFinite } from "./params";
 import type { Series } from "./series";
+import { type SignalParams, signalParams } from "./signal";
 import { timeWeightedMean } from "./time-average";
+import { reduceWindows, type Samples, type WindowKernel, type WindowSeries } from "./window-kernel";
 import * as stats from "./window-stats";
-import { splitWindows, type WindowParams, windowParams, type Windows } from "./windows";
+import { type WindowParams, windowGrid } from "./windows";
 
 /** The window statistics `aggregate` computes (OPC UA Part 13 names in its JSDoc). */
 export const AGGREGATE_FNS = [
@@ -23,13 +25,14 @@ export const AGGREGATE_FNS = [
 ] as const;
 export type AggregateFn = (typeof AGGREGATE_FNS)[number];
 
-export type AggregateParams = WindowParams & {
-  fn: AggregateFn;
-  /** For fn = percentile: 0–100 (Hyndman & Fan type 7). */
-  percentile?: number;
-  /** For fn = timeWeightedMean: step-hold or straight lines between samples (default linear). */
-  interpolation?: "step" | "linear";
-};
+export type AggregateParams = WindowParams &
+  SignalParams & {
+    fn: AggregateFn;
+    /** For fn = percentile: 0–100 (Hyndman & Fan type 7). */
+    percentile?: number;
+    /** For fn = timeWeightedMean: step-hold or straight lines between samples (default linear). */
+    interpolation?: "step" | "linear";
+  };
 
 type WindowFn = (v: Float64Array, from: number, to: number) => number;
 
@@ -54,70 +57,93 @@ const SIMPLE: Partial<Record<AggregateFn, WindowFn>> = {
  * percentile use Hyndman & Fan type 7 (The American Statistician, 1996); mode is the
  * most frequent value, the smallest on a tie. Reference values in tests: simple-statistics.
  *
- * Windows align to the epoch plus `offsetMs`; each output sample is stamped with its
- * window start; windows without samples are absent. A one-sample window has a sample
- * standard deviation of NaN.
+ * Windows align to the epoch plus `offsetMs`, or to the local calendar of `timeZone`;
+ * each output sample is stamped with its window start; windows without samples are
+ * absent. Only usable samples enter a statistic — good ones, and uncertain ones with
+ * `includeUncertain` (DESIGN.md "Signals"); the output carries each window's quality and
+ * good share ({@link WindowSeries}). A one-sample window has a sample standard deviation
+ * of NaN. The streaming form is {@link createAggregateStream}.
  */
-export function aggregate(s: Series, p: AggregateParams): Series {
-  const [windowMs, offsetMs] = windowParams(p);
+export function aggregate(s: Series, p: AggregateParams): WindowSeries {
+  const grid = windowGrid(p);
+  const [, usableMax] = signalParams(p);
+  return reduceWindows(s, grid, aggregateKernel(p), usableMax);
+}
+
+/** The kernel of {@link aggregate}, shared with its streaming form; checks the parameters. */
+export function aggregateKernel(p: AggregateParams): WindowKernel {
   const fn = p.fn;
   if (!AGGREGATE_FNS.includes(fn)) throw new RangeError(`fn must be one of ${AGGREGATE_FNS.join(", ")}, got ${String(fn)}`);
-  const { t, v } = s;
-  const w = splitWindows(s, windowMs, offsetMs);
-  const out = new Float64Array(w.count);
-  const { begin, start } = w;
-
-  const simple = SIMPLE[fn];
-  if (simple !== undefined) {
-    applyToWindows(simple, v, begin, w.count, out);
-  } else if (fn === "timeWeightedMean") {
+  const [gapMs, usableMax] = signalParams(p);
+  if (fn === "timeWeightedMean") {
     const interpolation = p.interpolation ?? "linear";
     if (interpolation !== "step" && interpolation !== "linear") {
       throw new RangeError(`interpolation must be "step" or "linear", got ${String(interpolation)}`);
     }
-    timeAverages(t, v, w, interpolation === "linear", out);
-  } else {
-    const q = fn === "median" ? 0.5 : fn === "percentile" ? percentileParam(p.percentile) / 100 : NaN;
-    const scratch = new Float64Array(widestWindow(begin, w.count));
-    if (fn === "mode") sortedStatistic((x) => stats.modeSorted(x), v, begin, w.count, scratch, out);
-    else sortedStatistic((x) => stats.quantileSorted(x, q), v, begin, w.count, scratch, out);
+    return new TimeAverageKernel(interpolation === "linear", usableMax, gapMs);
   }
-  return { t: start, v: out };
+  const simple = SIMPLE[fn];
+  if (simple !== undefined) return new StatisticKernel(simple, undefined, usableMax, fn === "count" ? 0 : Number.NaN);
+  const quantile = fn === "median" ? 0.5 : fn === "percentile" ? percentileParam(p.percentile) / 100 : Number.NaN;
+  const sorted = fn === "mode" ? stats.modeSorted : (x: Float64Array) => stats.quantileSorted(x, quantile);
+  return new StatisticKernel(undefined, sorted, usableMax, Number.NaN);
 }
 
-// The loops below stand alone with nothing after them, so V8's code compiled while they
-// run (on-stack replacement) stays valid when they end.
+/** A statistic of the window's usable values (in time order, or sorted). */
+class StatisticKernel implements WindowKernel {
+  readonly needsNext = false;
+  readonly nanIsBad = false;
+  private scratch = new Float64Array(256);
 
-function applyToWindows(fn: WindowFn, v: Float64Array, begin: Uint32Array, count: number, out: Float64Array): void {
-  for (let k = 0; k < count; k++) out[k] = fn(v, begin[k], begin[k + 1]);
-}
+  constructor(
+    private readonly simple: WindowFn | undefined,
+    private readonly sorted: ((x: Float64Array) => number) | undefined,
+    private readonly usableMax: number,
+    readonly empty: number,
+  ) {}
 
-function timeAverages(t: Float64Array, v: Float64Array, w: Windows, linear: boolean, out: Float64Array): void {
-  const { begin, start, windowMs, count } = w;
-  for (let k = 0; k < count; k++) {
-    out[k] = timeWeightedMean(t, v, begin[k], begin[k + 1], start[k], start[k] + windowMs, linear);
+  value(s: Samples, from: number, to: number): number {
+    const { v, q } = s;
+    if (to - from > this.scratch.length) this.scratch = new Float64Array(Math.max(to - from, 2 * this.scratch.length));
+    let values = v;
+    let a = from;
+    let b = to;
+    if (q !== undefined) {
+      values = this.scratch;
+      a = 0;
+      b = gatherUsable(v, q, from, to, this.usableMax, values);
+    }
+    if (this.simple !== undefined) return this.simple(values, a, b);
+    const x = this.scratch.subarray(0, b - a);
+    if (q === undefined) x.set(v.subarray(from, to));
+    x.sort();
+    return (this.sorted as (x: Float64Array) => number)(x);
   }
 }
 
-function widestWindow(begin: Uint32Array, count: number): number {
-  let widest = 0;
-  for (let k = 0; k < count; k++) if (begin[k + 1] - begin[k] > widest) widest = begin[k + 1] - begin[k];
-  return widest;
+/** Copies the usable values of [from, to) to the start of `out`; returns how many. */
+function gatherUsable(v: Float64Array, q: Uint8Array, from: number, to: number, usableMax: number, out: Float64Array): number {
+  let m = 0;
+  for (let i = from; i < to; i++) if (q[i] <= usableMax) out[m++] = v[i];
+  return m;
 }
 
-function sortedStatistic(
-  statistic: (sorted: Float64Array) => number,
-  v: Float64Array,
-  begin: Uint32Array,
-  count: number,
-  scratch: Float64Array,
-  out: Float64Array,
-): void {
-  for (let k = 0; k < count; k++) {
-    const sorted = scratch.subarray(0, begin[k + 1] - begin[k]);
-    sorted.set(v.subarray(begin[k], begin[k + 1]));
-    sorted.sort();
-    out[k] = statistic(sorted);
+class TimeAverageKernel implements WindowKernel {
+  readonly needsNext: boolean;
+  readonly nanIsBad = true;
+  readonly empty = Number.NaN;
+
+  constructor(
+    private readonly linear: boolean,
+    private readonly usableMax: number,
+    private readonly gapMs: number,
+  ) {
+    // The end of a window reads the next sample (linear), or whether a gap follows (gaps).
+    this.needsNext = linear || gapMs !== Infinity;
+  }
+
+  value(s: Samples, from: number, to: number, length: number, start: number, end: number): number {
+    return timeWeightedMean(s, from, to, length, start, end, this.linear, this.usableMax, this.gapMs);
   }
 }
 

@@ -1,8 +1,10 @@
 import { IndexBuffer } from "./index-buffer";
-import { optionalInterval, requireFinite, requireNonNegative } from "./params";
+import { optionalGap, optionalInterval, requireFinite, requireNonNegative } from "./params";
 import { allIndices, checkShape, failValidation, type Series } from "./series";
+import { hasStretches, type SignalParams } from "./signal";
+import { selectByStretch } from "./stretches";
 
-export type DeadbandParams = {
+export type DeadbandParams = Pick<SignalParams, "gapMs"> & {
   /** Absolute deadband in the tag's engineering unit (see percentOfRange). */
   deadband: number;
   /** Keep a sample at least this often (ms), unless two neighbours are further apart. */
@@ -20,12 +22,17 @@ export type DeadbandParams = {
  * consecutive kept samples are further apart than the interval unless they are
  * neighbours in the input. First and last samples are always kept.
  *
+ * With quality or `gapMs`, each stretch between gaps and quality changes is reduced on
+ * its own (see stretches.ts). The streaming form is {@link createDeadbandStream}.
+ *
  * @returns kept indices, ascending.
  */
 export function deadband(s: Series, p: DeadbandParams): Uint32Array {
-  checkShape(s);
   const band = requireNonNegative("deadband", p.deadband);
   const maxInterval = optionalInterval("maxIntervalMs", p.maxIntervalMs);
+  const gapMs = optionalGap(p.gapMs);
+  if (hasStretches(s.q, gapMs)) return selectByStretch(s, gapMs, (part) => deadband(part, { deadband: band, maxIntervalMs: p.maxIntervalMs }));
+  checkShape(s);
   const { t, v } = s;
   const n = t.length;
   if (n <= 2) {

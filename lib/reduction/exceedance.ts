@@ -1,21 +1,25 @@
 import { requireFinite, requireNonNegative } from "./params";
 import type { Series } from "./series";
-import { splitWindows, type WindowParams, windowParams, type Windows } from "./windows";
+import { type SignalParams, signalParams } from "./signal";
+import { timeMatching } from "./time-average";
+import { filterWindows, reduceWindows, type Samples, type WindowKernel, type WindowSeries } from "./window-kernel";
+import { type WindowParams, windowGrid } from "./windows";
 
-export type ExceedanceParams = WindowParams & {
-  threshold: number;
-  /** `above` (default) counts upward crossings, `below` downward ones. */
-  direction?: "above" | "below";
-  /** Re-arm only after the value returns past threshold ∓ hysteresis (default 0). */
-  hysteresis?: number;
-};
+export type ExceedanceParams = WindowParams &
+  SignalParams & {
+    threshold: number;
+    /** `above` (default) counts upward crossings, `below` downward ones. */
+    direction?: "above" | "below";
+    /** Re-arm only after the value returns past threshold ∓ hysteresis (default 0). */
+    hysteresis?: number;
+  };
 
 export type ExceedanceEventParams = ExceedanceParams & {
   /** A window is an event when its crossing count exceeds this limit. */
   limit: number;
 };
 
-export type TimeAboveParams = WindowParams & { threshold: number };
+export type TimeAboveParams = WindowParams & SignalParams & { threshold: number };
 
 /**
  * Threshold crossings per window — common practice (no canonical source), a Schmitt
@@ -24,33 +28,28 @@ export type TimeAboveParams = WindowParams & { threshold: number };
  * (from ≥ threshold to < threshold, re-arm at ≥ threshold + hysteresis). A series that
  * starts past the threshold does not count as a crossing. A crossing belongs to the
  * window of the sample that completes it; a window with samples but no crossing gives 0.
+ * Only usable samples are read (a bad stretch neither crosses nor re-arms); a crossing
+ * across a gap still counts, at the sample after it — the value did cross. Streaming
+ * form: {@link createExceedanceStream}.
  */
-export function exceedances(s: Series, p: ExceedanceParams): Series {
-  const [windowMs, offsetMs] = windowParams(p);
-  const w = splitWindows(s, windowMs, offsetMs);
-  return { t: w.start, v: countCrossings(s.v, w, crossingParams(p)) };
+export function exceedances(s: Series, p: ExceedanceParams): WindowSeries {
+  const grid = windowGrid(p);
+  const [, usableMax] = signalParams(p);
+  return reduceWindows(s, grid, crossingKernel(p), usableMax);
 }
 
 /**
  * Exceedance events — common practice: the windows whose crossing count (as in
  * {@link exceedances}) is greater than `limit`; v is the count.
  */
-export function exceedanceEvents(s: Series, p: ExceedanceEventParams): Series {
-  const [windowMs, offsetMs] = windowParams(p);
-  const limit = requireNonNegative("limit", p.limit);
-  const w = splitWindows(s, windowMs, offsetMs);
-  const counts = countCrossings(s.v, w, crossingParams(p));
-  let events = 0;
-  for (let k = 0; k < w.count; k++) if (counts[k] > limit) events++;
-  const t = new Float64Array(events);
-  const v = new Float64Array(events);
-  for (let k = 0, e = 0; k < w.count; k++) {
-    if (counts[k] > limit) {
-      t[e] = w.start[k];
-      v[e++] = counts[k];
-    }
-  }
-  return { t, v };
+export function exceedanceEvents(s: Series, p: ExceedanceEventParams): WindowSeries {
+  const limit = eventLimit(p);
+  return filterWindows(exceedances(s, p), (count) => count > limit);
+}
+
+/** Checks and returns an event limit. */
+export function eventLimit(p: ExceedanceEventParams): number {
+  return requireNonNegative("limit", p.limit);
 }
 
 /**
@@ -58,57 +57,85 @@ export function exceedanceEvents(s: Series, p: ExceedanceEventParams): Series {
  * next sample (step-hold, as for deadband reconstruction); the time where the held value
  * is strictly above the threshold is summed within [window start, window end). The value
  * before a window's first sample is the previous sample's; the last sample of the series
- * holds to its window's end.
+ * holds to its window's end. A value does not hold across a gap nor from an unusable
+ * sample (see time-average.ts). Streaming form: {@link createTimeAboveStream}.
  */
-export function timeAbove(s: Series, p: TimeAboveParams): Series {
-  const [windowMs, offsetMs] = windowParams(p);
-  const threshold = requireFinite("threshold", p.threshold);
-  const { t, v } = s;
-  const w = splitWindows(s, windowMs, offsetMs);
-  const out = new Float64Array(w.count);
-  fillTimeAbove(t, v, w, threshold, out);
-  return { t: w.start, v: out };
+export function timeAbove(s: Series, p: TimeAboveParams): WindowSeries {
+  const grid = windowGrid(p);
+  const [, usableMax] = signalParams(p);
+  return reduceWindows(s, grid, timeAboveKernel(p), usableMax);
 }
 
-/** Nothing follows the loop, so V8's mid-loop compiled code stays valid (see windows.ts). */
-function fillTimeAbove(t: Float64Array, v: Float64Array, w: Windows, threshold: number, out: Float64Array): void {
-  const { begin, start, windowMs, count } = w;
-  for (let k = 0; k < count; k++) {
-    const from = begin[k];
-    const last = begin[k + 1] - 1;
-    let ms = 0;
-    if (from > 0 && v[from - 1] > threshold) ms += t[from] - start[k];
-    for (let i = from; i < last; i++) if (v[i] > threshold) ms += t[i + 1] - t[i];
-    if (v[last] > threshold) ms += start[k] + windowMs - t[last];
-    out[k] = ms;
+/** The kernel of {@link timeAbove}; checks the parameters. */
+export function timeAboveKernel(p: TimeAboveParams): WindowKernel {
+  return new TimeMatchingKernel(requireFinite("threshold", p.threshold), false, p);
+}
+
+/** Time during which a step-hold value is above, or equal to, a level (shared with time in state). */
+export class TimeMatchingKernel implements WindowKernel {
+  readonly needsNext: boolean;
+  readonly nanIsBad = false;
+  readonly empty = Number.NaN;
+  private readonly usableMax: number;
+  private readonly gapMs: number;
+
+  constructor(
+    private readonly level: number,
+    private readonly equal: boolean,
+    p: SignalParams,
+  ) {
+    [this.gapMs, this.usableMax] = signalParams(p);
+    this.needsNext = this.gapMs !== Infinity; // whether a gap follows the window's last sample
+  }
+
+  value(s: Samples, from: number, to: number, length: number, start: number, end: number): number {
+    return timeMatching(s, from, to, length, start, end, this.level, this.equal, this.usableMax, this.gapMs);
   }
 }
 
-type Crossing = { threshold: number; below: boolean; hysteresis: number };
-
-function crossingParams(p: ExceedanceParams): Crossing {
+/** The kernel of {@link exceedances}; checks the parameters. */
+export function crossingKernel(p: ExceedanceParams): WindowKernel {
   const threshold = requireFinite("threshold", p.threshold);
   const direction = p.direction ?? "above";
   if (direction !== "above" && direction !== "below") {
     throw new RangeError(`direction must be "above" or "below", got ${String(direction)}`);
   }
   const hysteresis = p.hysteresis === undefined ? 0 : requireNonNegative("hysteresis", p.hysteresis);
-  return { threshold, below: direction === "below", hysteresis };
+  const [, usableMax] = signalParams(p);
+  return new CrossingKernel(threshold, direction === "below", hysteresis, usableMax);
 }
 
-function countCrossings(v: Float64Array, w: Windows, c: Crossing): Float64Array {
-  const counts = new Float64Array(w.count);
-  if (w.count === 0) return counts;
-  // Mirror `below` onto `above` by negating values and threshold.
-  const sign = c.below ? -1 : 1;
-  const threshold = sign * c.threshold;
-  const rearm = threshold - c.hysteresis;
-  let armed = !(sign * v[0] > threshold);
-  for (let k = 0; k < w.count; k++) {
+class CrossingKernel implements WindowKernel {
+  readonly needsNext = false;
+  readonly nanIsBad = false;
+  readonly empty = Number.NaN;
+  private readonly sign: number;
+  private readonly threshold: number;
+  private readonly rearm: number;
+  /** Carried between windows; undefined until the first usable sample. */
+  private armed: boolean | undefined;
+
+  constructor(
+    threshold: number,
+    below: boolean,
+    hysteresis: number,
+    private readonly usableMax: number,
+  ) {
+    // Mirror `below` onto `above` by negating values and threshold.
+    this.sign = below ? -1 : 1;
+    this.threshold = this.sign * threshold;
+    this.rearm = this.threshold - hysteresis;
+  }
+
+  value(s: Samples, from: number, to: number): number {
+    const { v, q } = s;
+    const { sign, threshold, rearm, usableMax } = this;
+    let armed = this.armed;
     let count = 0;
-    const end = w.begin[k + 1];
-    for (let i = w.begin[k]; i < end; i++) {
+    for (let i = from; i < to; i++) {
+      if (q !== undefined && q[i] > usableMax) continue;
       const x = sign * v[i];
+      if (armed === undefined) armed = !(x > threshold);
       if (armed) {
         if (x > threshold) {
           count++;
@@ -118,7 +145,7 @@ function countCrossings(v: Float64Array, w: Windows, c: Crossing): Float64Array 
         armed = true;
       }
     }
-    counts[k] = count;
+    this.armed = armed;
+    return count;
   }
-  return counts;
 }

@@ -1,7 +1,9 @@
-import { requireInteger } from "./params";
+import { optionalGap, requireInteger } from "./params";
 import { allIndices, checkShape, failValidation, firstBadSampleIn, type Series, validateSeries } from "./series";
+import { hasStretches, type SignalParams } from "./signal";
+import { selectByStretchBudget } from "./stretches";
 
-export type BucketParams = {
+export type BucketParams = Pick<SignalParams, "gapMs"> & {
   /** Number of samples to keep, first and last included (integer ≥ 2). */
   points: number;
 };
@@ -18,11 +20,19 @@ export type BucketParams = {
  * from floor((threshold − 2) × every) and can fall one sample short through float
  * rounding. Timestamps are used as given (epoch ms), as the reference does.
  *
+ * With quality or `gapMs`, the ends of every stretch between gaps and quality changes are
+ * kept and the remaining points are shared among the stretches (see stretches.ts).
+ *
+ * Batch-only by nature: a bucket's choice depends on the average of the next bucket and
+ * the buckets on the whole series' length, so no sample can be decided before the end.
+ *
  * @returns kept indices, ascending; all indices when `points` ≥ the sample count.
  */
 export function lttb(s: Series, p: BucketParams): Uint32Array {
-  checkShape(s);
   const threshold = requireInteger("points", p.points, 2);
+  const gapMs = optionalGap(p.gapMs);
+  if (hasStretches(s.q, gapMs)) return selectByStretchBudget(s, gapMs, threshold, (part, points) => lttb(part, { points }));
+  checkShape(s);
   const { t, v } = s;
   const n = t.length;
   if (threshold >= n) {
@@ -99,12 +109,16 @@ function fillLttb(t: Float64Array, v: Float64Array, out: Uint32Array, every: num
  * buckets as LTTB (first and last samples alone in their own buckets) and keep the
  * highest-ranked sample of each bucket (the first one on a tie). The `downsample` npm
  * package's LTOB splits its buckets differently and is not used as a reference.
+ * Stretches as for {@link lttb}. Batch-only by nature: the buckets depend on the whole
+ * series' length.
  *
  * @returns kept indices, ascending; all indices when `points` ≥ the sample count.
  */
 export function ltob(s: Series, p: BucketParams): Uint32Array {
-  validateSeries(s);
   const threshold = requireInteger("points", p.points, 2);
+  const gapMs = optionalGap(p.gapMs);
+  if (hasStretches(s.q, gapMs)) return selectByStretchBudget(s, gapMs, threshold, (part, points) => ltob(part, { points }));
+  validateSeries(s);
   const { t, v } = s;
   const n = t.length;
   if (threshold >= n) return allIndices(n);

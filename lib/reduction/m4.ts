@@ -1,20 +1,31 @@
 import { IndexBuffer } from "./index-buffer";
+import { optionalGap } from "./params";
 import type { Series } from "./series";
-import { splitWindows, type WindowParams, windowParams } from "./windows";
+import { hasStretches, type SignalParams } from "./signal";
+import { selectByStretch } from "./stretches";
+import { splitWindows, type WindowParams, windowGrid } from "./windows";
+
+export type M4Params = WindowParams & Pick<SignalParams, "gapMs">;
 
 /**
  * M4 — U. Jugel, Z. Jerzak, G. Hackenbroich, V. Markl, "M4: A Visualization-Oriented
  * Time Series Data Aggregation", PVLDB 7(10), 2014: per window, keep the first and last
  * samples and the samples with the minimum and maximum value (the first of equal
  * values), and nothing else. Windows are epoch-aligned (plus `offsetMs`); for pixel
- * columns, set windowMs to the time span of one column.
+ * columns, set windowMs to the time span of one column. With quality or `gapMs`, each
+ * stretch between gaps and quality changes is reduced on its own (see stretches.ts).
+ *
+ * Batch-only by nature: the paper defines M4 on a query's whole time range split into
+ * pixel columns, so it is a query over stored data, not a step of an edge stream.
  *
  * @returns kept indices, ascending (first and last of the series are always among them).
  */
-export function m4(s: Series, p: WindowParams): Uint32Array {
-  const [windowMs, offsetMs] = windowParams(p);
+export function m4(s: Series, p: M4Params): Uint32Array {
+  const grid = windowGrid(p);
+  const gapMs = optionalGap(p.gapMs);
+  if (hasStretches(s.q, gapMs)) return selectByStretch(s, gapMs, (part) => m4(part, { windowMs: p.windowMs, offsetMs: p.offsetMs, timeZone: p.timeZone }));
   const { t, v } = s;
-  const w = splitWindows(s, windowMs, offsetMs);
+  const w = splitWindows(s, grid);
   const kept = new IndexBuffer(Math.min(t.length, 4 * w.count));
   keepM4(v, w.begin, w.count, kept);
   return kept.toArray();

@@ -30,3 +30,16 @@ export function requireInteger(name: string, value: number, min: number): number
   }
   return value;
 }
+
+/** An optional gap threshold: undefined means no gaps; otherwise a positive number of ms. */
+export function optionalGap(value: number | undefined): number {
+  return value === undefined ? Infinity : requirePositive("gapMs", value);
+}
+
+/** An optional share in (0, 1]. */
+export function shareParam(name: string, value: number | undefined, fallback: number): number {
+  if (value === undefined) return fallback;
+  requireFinite(name, value);
+  if (!(value > 0 && value <= 1)) throw new RangeError(`${name} must be within (0, 1], got ${value}`);
+  return value;
+}

@@ -1,9 +1,11 @@
-import { requireNonNegative } from "./params";
+import { optionalGap, requireNonNegative } from "./params";
 import { blockEnvelopes } from "./rdp-blocks";
 import { farthestPerpendicular, farthestVertical, type RdpContext, rdpContext } from "./rdp-farthest";
 import { allIndices, indicesFromMask, type Series, validateSeries } from "./series";
+import { hasStretches, type SignalParams } from "./signal";
+import { selectByStretch } from "./stretches";
 
-export type RdpParams = {
+export type RdpParams = Pick<SignalParams, "gapMs"> & {
   /** Largest distance a dropped sample may have from the kept line. */
   epsilon: number;
   /**
@@ -26,15 +28,21 @@ export type RdpParams = {
  * `perpendicular` keeps exactly the samples of simplify-js `simplify(points, epsilon,
  * true)` (squared distance to the segment, strict >, first farthest on a tie).
  *
+ * With quality or `gapMs`, each stretch between gaps and quality changes is simplified
+ * on its own (see stretches.ts). Batch-only by nature: the first split depends on the
+ * whole series' ends, so no sample can be decided before the end.
+ *
  * @returns kept indices, ascending.
  */
 export function rdp(s: Series, p: RdpParams): Uint32Array {
-  validateSeries(s);
   const epsilon = requireNonNegative("epsilon", p.epsilon);
   const distance = p.distance ?? "vertical";
   if (distance !== "vertical" && distance !== "perpendicular") {
     throw new RangeError(`distance must be "vertical" or "perpendicular", got ${String(distance)}`);
   }
+  const gapMs = optionalGap(p.gapMs);
+  if (hasStretches(s.q, gapMs)) return selectByStretch(s, gapMs, (part) => rdp(part, { epsilon, distance }));
+  validateSeries(s);
   const { t, v } = s;
   const n = t.length;
   if (n <= 2) return allIndices(n);

@@ -2,9 +2,14 @@
  * A time series on typed arrays: the unit every reduction method works on.
  * `t` is UTC epoch milliseconds, strictly ascending; `v` the values; `q` the optional
  * quality per sample (0 good, 1 uncertain, 2 bad — the severity order of OPC UA status
- * codes). No object per sample, so 10M samples cost 160 MB (t and v) and no more.
+ * codes; absent means all good). No object per sample, so 10M samples cost 160 MB (t and
+ * v) and no more. A value must be finite unless its sample is bad: a bad sample may
+ * carry NaN (aggregates give NaN for windows without usable samples).
  */
 export type Series = { t: Float64Array; v: Float64Array; q?: Uint8Array };
+
+/** A series whose quality is always given: what aggregations and streams return. */
+export type QualifiedSeries = { t: Float64Array; v: Float64Array; q: Uint8Array };
 
 /** Quality severities (OPC UA Part 4 status code severity: Good, Uncertain, Bad). */
 export const QUALITY_GOOD = 0;
@@ -25,12 +30,14 @@ export class SeriesError extends Error {
  * Checks a series in one pass (common practice; no published source) and throws a
  * {@link SeriesError} naming the first bad index: lengths must agree, timestamps must
  * be finite and strictly ascending (an unsorted or duplicate timestamp is reported at
- * the later sample), values finite, qualities 0–2. Empty and one-sample series are valid.
+ * the later sample), values finite unless the sample is bad, qualities 0–2. Empty and
+ * one-sample series are valid.
  */
 export function validateSeries(s: Series): void {
   checkShape(s);
-  const bad = firstBadSample(s.t, s.v);
-  if (bad >= 0) throw sampleError(s.t, s.v, bad);
+  const { t, v, q } = s;
+  const bad = q === undefined ? firstBadSample(t, v) : firstBadQualified(t, v, q);
+  if (bad >= 0) throw sampleError(t, v, bad);
 }
 
 /**
@@ -48,7 +55,11 @@ export function checkShape(s: Series): void {
   if (v.length !== n) {
     throw new SeriesError(`series.v has ${v.length} samples but series.t has ${n}`, Math.min(n, v.length));
   }
-  if (q !== undefined) validateQuality(q, n);
+  if (q !== undefined) {
+    // Methods take their plain path for a series with quality: validateSeries checks it.
+    validateQuality(q, n);
+    return;
+  }
   if (n === 0) return;
   if (!Number.isFinite(t[0]) || !Number.isFinite(v[0])) throw sampleError(t, v, 0);
   if (!Number.isFinite(t[n - 1]) || !Number.isFinite(v[n - 1])) {
@@ -95,6 +106,17 @@ function firstBadSample(t: Float64Array, v: Float64Array): number {
   return firstBadSampleIn(t, v, 1, n);
 }
 
+/** As firstBadSample, but a bad sample's value may be anything (NaN included). */
+function firstBadQualified(t: Float64Array, v: Float64Array, q: Uint8Array): number {
+  let prev = -Infinity;
+  for (let i = 0; i < t.length; i++) {
+    const ti = t[i];
+    if (!(ti > prev) || ti === Infinity || (q[i] !== QUALITY_BAD && v[i] - v[i] !== 0)) return i;
+    prev = ti;
+  }
+  return -1;
+}
+
 function sampleError(t: Float64Array, v: Float64Array, i: number): SeriesError {
   const ti = t[i];
   if (!Number.isFinite(ti)) return new SeriesError(`t[${i}] = ${ti} is not a finite timestamp`, i);
@@ -102,7 +124,7 @@ function sampleError(t: Float64Array, v: Float64Array, i: number): SeriesError {
     const why = ti === t[i - 1] ? `duplicates t[${i - 1}]` : `is before t[${i - 1}] = ${t[i - 1]}`;
     return new SeriesError(`t[${i}] = ${ti} ${why}: timestamps must be strictly ascending`, i);
   }
-  return new SeriesError(`v[${i}] = ${v[i]} is not a finite value`, i);
+  return new SeriesError(`v[${i}] = ${v[i]} is not a finite value (only a bad sample may have one)`, i);
 }
 
 function validateQuality(q: Uint8Array, n: number): void {

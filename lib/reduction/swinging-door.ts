@@ -1,8 +1,10 @@
 import { IndexBuffer } from "./index-buffer";
-import { optionalInterval, requireNonNegative } from "./params";
+import { optionalGap, optionalInterval, requireNonNegative } from "./params";
 import { allIndices, checkShape, failValidation, type Series } from "./series";
+import { hasStretches, type SignalParams } from "./signal";
+import { selectByStretch } from "./stretches";
 
-export type SwingingDoorParams = {
+export type SwingingDoorParams = Pick<SignalParams, "gapMs"> & {
   /** Half-width of the corridor, in the tag's engineering unit (see percentOfRange). */
   deviation: number;
   /** Keep a sample at least this often (ms), unless two neighbours are further apart. */
@@ -23,12 +25,18 @@ export type SwingingDoorParams = {
  * Invariant: every dropped sample lies within ±deviation of the straight line between
  * the kept samples around it, so `deviation` bounds the linear reconstruction error.
  *
+ * With quality or `gapMs`, each stretch between gaps and quality changes is reduced on
+ * its own (see stretches.ts), so the samples on both sides of each are kept. The
+ * streaming form is {@link createSwingingDoorStream}.
+ *
  * @returns kept indices, ascending.
  */
 export function swingingDoor(s: Series, p: SwingingDoorParams): Uint32Array {
-  checkShape(s);
   const deviation = requireNonNegative("deviation", p.deviation);
   const maxInterval = optionalInterval("maxIntervalMs", p.maxIntervalMs);
+  const gapMs = optionalGap(p.gapMs);
+  if (hasStretches(s.q, gapMs)) return selectByStretch(s, gapMs, (part) => swingingDoor(part, { deviation, maxIntervalMs: p.maxIntervalMs }));
+  checkShape(s);
   const { t, v } = s;
   const n = t.length;
   if (n <= 2) {
