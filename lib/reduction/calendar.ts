@@ -83,3 +83,8 @@ export class CalendarGrid implements WindowGrid {
     return hi;
   }
 }
+
+/** True for a time zone name luxon knows (IANA). */
+export function isTimeZone(name: string): boolean {
+  return typeof name === "string" && IANAZone.isValidZone(name);
+}

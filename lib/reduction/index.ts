@@ -23,3 +23,55 @@ export type { ExceedanceParams, ExceedanceEventParams, TimeAboveParams } from ".
 export type { WindowSeries } from "./window-kernel";
 export { measure, type Metrics, type MeasureParams } from "./measure";
 export { windowStart, windowGrid, type WindowGrid, type WindowParams } from "./windows";
+export type { StreamProcessor, StreamChunk, StreamParams } from "./stream";
+export {
+  createSwingingDoorStream,
+  createDeadbandStream,
+  createChangeOfStateStream,
+  createQualityFilterStream,
+  createPassThroughStream,
+  createDropStream,
+} from "./stream-selection";
+export {
+  createAggregateStream,
+  createExceedanceStream,
+  createExceedanceEventStream,
+  createTimeAboveStream,
+  createTransitionCountStream,
+  createTimeInStateStream,
+  createCounterDeltaStream,
+  createCounterRateStream,
+} from "./stream-windows";
+export { encodedBits, gorillaEncode, gorillaDecode, type GorillaOptions, type GorillaEncoded } from "./gorilla";
+export {
+  TAG_KINDS,
+  OUTPUT_NAME_PATTERN,
+  ProfileError,
+  METHODS,
+  resolveSteps,
+  validateProfile,
+  runProfile,
+  createProfileStream,
+} from "./profile";
+export type {
+  TagKind,
+  Abs,
+  Pct,
+  Magnitude,
+  Profile,
+  ProfileOutput,
+  Step,
+  StepOf,
+  ResolvedStep,
+  StepMethod,
+  ProfileTag,
+  ParameterOverride,
+  RunContext,
+  ResolvedProfile,
+  MethodInfo,
+  ParamInfo,
+  OutputRun,
+  ProfileRun,
+  ProfileStream,
+  StreamCounter,
+} from "./profile";

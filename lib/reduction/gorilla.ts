@@ -1,0 +1,256 @@
+import { BitReader, BitWriter } from "./bit-stream";
+import { type Series, SeriesError } from "./series";
+
+export type GorillaOptions = {
+  /** Timestamp resolution in ms (default 1: epoch ms, lossless for Sluice's series; the paper uses 1000). */
+  resolutionMs?: number;
+  /** Block length in ms; each block starts with its own header (default 2 h, as in the paper). */
+  blockMs?: number;
+};
+
+export type GorillaEncoded = {
+  bytes: Uint8Array;
+  bitLength: number;
+  /** Samples per block, in order: framing a receiver keeps beside the bits (not counted in bitLength). */
+  blockCounts: Uint32Array;
+  resolutionMs: number;
+  blockMs: number;
+};
+
+const TWO_HOURS = 7_200_000;
+const LITTLE_ENDIAN = new Uint8Array(new Float64Array([1]).buffer)[7] === 0x3f;
+const HI = LITTLE_ENDIAN ? 1 : 0;
+const LO = 1 - HI;
+
+/**
+ * The exact size in bits of a series under Gorilla compression — T. Pelkonen et al.,
+ * "Gorilla: A Fast, Scalable, In-Memory Time Series Database", PVLDB 8(12), 2015,
+ * section 4.1: delta-of-delta timestamps and XOR'd float values, in blocks aligned to
+ * two hours. The compressed byte model of DESIGN.md ("Metrics"). Quality codes are not
+ * part of the paper's format and are not counted. Lossless: see {@link gorillaDecode}.
+ */
+export function encodedBits(s: Series, options: GorillaOptions = {}): number {
+  return encode(s, options).writer.bitLength;
+}
+
+/**
+ * Gorilla encoder (Pelkonen et al. 2015, section 4.1). Per block of `blockMs` aligned to
+ * the epoch: a 64-bit header holding the block start (two's complement, in ticks of
+ * `resolutionMs`); the first timestamp as its delta from the header; the first value's
+ * 64 bits; then per sample the delta of deltas D (the first D is taken against the
+ * header delta, as the paper's Figure 2 does) and the XOR with the previous value.
+ *
+ * Where the paper's field widths are ambiguous, Sluice settles them as follows:
+ * - the first delta takes 14 bits, as in the paper, or more when a block holds more
+ *   ticks (23 bits for 2-h blocks of ms);
+ * - D: '0' for 0; '10' + 7 bits for D in [−63, 64]; '110' + 9 bits for [−255, 256];
+ *   '1110' + 12 bits for [−2047, 2048]; otherwise '1111' + 32 bits two's complement.
+ *   The paper's ranges hold 2^7, 2^9 and 2^12 values but are not the ranges of
+ *   two's complement fields ([−64, 63] …); we keep the paper's ranges and store D + 63,
+ *   D + 255, D + 2047 unsigned. Within a block |D| < block ticks < 2^31, so 32 bits suffice;
+ * - a value's XOR: '0' when zero; '10' + the meaningful bits when they fall within the
+ *   previous window (at least its leading and trailing zeros); otherwise '11' + 5 bits of
+ *   leading zeros + 6 bits of meaningful length + the meaningful bits. Leading zeros
+ *   above 31 do not fit 5 bits: 31 is stored and the extra zeros are sent as meaningful
+ *   bits. A meaningful length of 64 does not fit 6 bits: it is stored as 0 (a length of
+ *   0 never occurs). The first window of a block is always written with '11'.
+ */
+export function gorillaEncode(s: Series, options: GorillaOptions = {}): GorillaEncoded {
+  const { writer, blockCounts, resolutionMs, blockMs } = encode(s, options);
+  return { bytes: writer.bytes(), bitLength: writer.bitLength, blockCounts, resolutionMs, blockMs };
+}
+
+/** Decodes {@link gorillaEncode}'s output, bit for bit (NaN payloads and −0 included). */
+export function gorillaDecode(e: GorillaEncoded): Series {
+  const [resolution, blockTicks] = checkOptions(e);
+  const firstBits = firstDeltaBits(blockTicks);
+  let n = 0;
+  for (const c of e.blockCounts) n += c;
+  const t = new Float64Array(n);
+  const v = new Float64Array(n);
+  const words = new Uint32Array(v.buffer);
+  const r = new BitReader(e.bytes, e.bitLength);
+  let i = 0;
+  for (const count of e.blockCounts) {
+    if (count === 0) continue;
+    const header = (r.read(32) | 0) * 2 ** 32 + r.read(32);
+    let delta = r.read(firstBits);
+    let tick = header + delta;
+    let hi = r.read(32);
+    let lo = r.read(32);
+    let lead = 0;
+    let trail = 0;
+    t[i] = tick * resolution;
+    words[2 * i + HI] = hi;
+    words[2 * i + LO] = lo;
+    i++;
+    for (let k = 1; k < count; k++, i++) {
+      delta += readDod(r);
+      tick += delta;
+      t[i] = tick * resolution;
+      if (r.read(1) === 1) {
+        if (r.read(1) === 1) {
+          lead = r.read(5);
+          const meaningful = r.read(6) || 64;
+          trail = 64 - lead - meaningful;
+        }
+        const bits = 64 - lead - trail;
+        const xh = bits > 32 ? r.read(bits - 32) : 0;
+        const xl = r.read(Math.min(bits, 32));
+        // Shift (xh, xl) left by `trail` back into place.
+        let sh: number;
+        let sl: number;
+        if (trail >= 32) {
+          sh = xl << (trail - 32);
+          sl = 0;
+        } else if (trail === 0) {
+          sh = xh;
+          sl = xl;
+        } else {
+          sh = (xh << trail) | (xl >>> (32 - trail));
+          sl = xl << trail;
+        }
+        hi = (hi ^ sh) >>> 0;
+        lo = (lo ^ sl) >>> 0;
+      }
+      words[2 * i + HI] = hi;
+      words[2 * i + LO] = lo;
+    }
+  }
+  return { t, v };
+}
+
+function readDod(r: BitReader): number {
+  if (r.read(1) === 0) return 0;
+  if (r.read(1) === 0) return r.read(7) - 63;
+  if (r.read(1) === 0) return r.read(9) - 255;
+  if (r.read(1) === 0) return r.read(12) - 2047;
+  return r.read(32) | 0;
+}
+
+function encode(s: Series, options: GorillaOptions): { writer: BitWriter; blockCounts: Uint32Array; resolutionMs: number; blockMs: number } {
+  const [resolution, blockTicks] = checkOptions(options);
+  const { t, v } = s;
+  if (!(t instanceof Float64Array) || !(v instanceof Float64Array)) throw new TypeError("series.t and series.v must be Float64Array");
+  if (t.length !== v.length) throw new SeriesError(`series.v has ${v.length} samples but series.t has ${t.length}`, Math.min(t.length, v.length));
+  const n = t.length;
+  const words = new Uint32Array(v.buffer, v.byteOffset, 2 * n);
+  const firstBits = firstDeltaBits(blockTicks);
+  const w = new BitWriter();
+  const counts: number[] = [];
+  let block = Number.NaN;
+  let prevTick = 0;
+  let prevDelta = 0;
+  let hi = 0;
+  let lo = 0;
+  let lead = -1;
+  let trail = 0;
+  for (let i = 0; i < n; i++) {
+    const tick = t[i] / resolution;
+    if (!Number.isSafeInteger(tick) || (i > 0 && !(tick > prevTick))) throw timestampError(t, i, resolution);
+    const h = words[2 * i + HI];
+    const l = words[2 * i + LO];
+    const start = Math.floor(tick / blockTicks) * blockTicks;
+    if (start !== block) {
+      block = start;
+      counts.push(1);
+      const headHi = Math.floor(start / 2 ** 32);
+      w.write(headHi >>> 0, 32);
+      w.write(start - headHi * 2 ** 32, 32);
+      prevDelta = tick - start;
+      w.write(prevDelta, firstBits);
+      w.write(h, 32);
+      w.write(l, 32);
+      lead = -1;
+    } else {
+      counts[counts.length - 1]++;
+      const delta = tick - prevTick;
+      writeDod(w, delta - prevDelta);
+      prevDelta = delta;
+      const xh = (h ^ hi) >>> 0;
+      const xl = (l ^ lo) >>> 0;
+      if (xh === 0 && xl === 0) {
+        w.write(0, 1);
+      } else {
+        let leading = xh !== 0 ? Math.clz32(xh) : 32 + Math.clz32(xl);
+        if (leading > 31) leading = 31;
+        const trailing = xl !== 0 ? 31 - Math.clz32(xl & -xl) : 32 + 31 - Math.clz32(xh & -xh);
+        if (lead >= 0 && leading >= lead && trailing >= trail) {
+          w.write(2, 2);
+        } else {
+          lead = leading;
+          trail = trailing;
+          const meaningful = 64 - lead - trail;
+          w.write(3, 2);
+          w.write(lead, 5);
+          w.write(meaningful === 64 ? 0 : meaningful, 6);
+        }
+        writeMeaningful(w, xh, xl, 64 - lead - trail, trail);
+      }
+    }
+    prevTick = tick;
+    hi = h;
+    lo = l;
+  }
+  return { writer: w, blockCounts: Uint32Array.from(counts), resolutionMs: resolution, blockMs: blockTicks * resolution };
+}
+
+/** Writes the `bits` bits of (xh, xl) above its `trail` trailing bits. */
+function writeMeaningful(w: BitWriter, xh: number, xl: number, bits: number, trail: number): void {
+  let sh: number;
+  let sl: number;
+  if (trail >= 32) {
+    sh = 0;
+    sl = xh >>> (trail - 32);
+  } else if (trail === 0) {
+    sh = xh;
+    sl = xl;
+  } else {
+    sh = xh >>> trail;
+    sl = ((xl >>> trail) | (xh << (32 - trail))) >>> 0;
+  }
+  if (bits > 32) {
+    w.write(sh, bits - 32);
+    w.write(sl, 32);
+  } else {
+    w.write(sl, bits);
+  }
+}
+
+function writeDod(w: BitWriter, d: number): void {
+  if (d === 0) w.write(0, 1);
+  else if (d >= -63 && d <= 64) {
+    w.write(2, 2);
+    w.write(d + 63, 7);
+  } else if (d >= -255 && d <= 256) {
+    w.write(6, 3);
+    w.write(d + 255, 9);
+  } else if (d >= -2047 && d <= 2048) {
+    w.write(14, 4);
+    w.write(d + 2047, 12);
+  } else {
+    w.write(15, 4);
+    w.write(d >>> 0, 32);
+  }
+}
+
+/** Width of the first delta: the paper's 14 bits, or as many as a block's ticks need. */
+function firstDeltaBits(blockTicks: number): number {
+  return Math.max(14, 32 - Math.clz32(blockTicks - 1));
+}
+
+function checkOptions(o: GorillaOptions): [number, number] {
+  const resolution = o.resolutionMs ?? 1;
+  const blockMs = o.blockMs ?? TWO_HOURS;
+  if (!(Number.isFinite(resolution) && resolution > 0)) throw new RangeError(`resolutionMs must be > 0, got ${resolution}`);
+  const blockTicks = blockMs / resolution;
+  if (!Number.isInteger(blockTicks) || blockTicks < 1 || blockTicks > 2 ** 31 - 1) {
+    throw new RangeError(`blockMs must be a whole number (1 to 2³¹ − 1) of resolutionMs, got ${blockMs}`);
+  }
+  return [resolution, blockTicks];
+}
+
+function timestampError(t: Float64Array, i: number, resolution: number): SeriesError {
+  if (i > 0 && !(t[i] > t[i - 1])) return new SeriesError(`t[${i}] = ${t[i]} is not after t[${i - 1}] = ${t[i - 1]}`, i);
+  return new SeriesError(`t[${i}] = ${t[i]} is not a whole number of ${resolution} ms ticks`, i);
+}
