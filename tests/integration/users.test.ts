@@ -122,7 +122,8 @@ describe("the last active admin", () => {
       await expect(updateUser(actor, last.id, { role: "engineer" })).resolves.toMatchObject({ role: "engineer" });
       await expect(updateUser(actor, second.id, { active: false })).rejects.toMatchObject({ status: 409 });
     } finally {
-      for (const o of others) await o.update({ active: true });
+      // Bulk update: the instances above still hold active = true, so an instance update would write nothing.
+      await User.update({ active: true }, { where: { id: others.map((o) => o.id) } });
     }
   });
 
@@ -137,7 +138,11 @@ describe("the last active admin", () => {
       expect(results.filter((r) => r.status === "fulfilled")).toHaveLength(1);
       expect(await User.count({ where: { role: "admin", active: true } })).toBe(1);
     } finally {
-      for (const o of others) await o.update({ active: true });
+      await User.update({ active: true }, { where: { id: others.map((o) => o.id) } });
     }
+  });
+
+  it("leaves the demo administrator active for the tests that follow", async () => {
+    expect(await User.findOne({ where: { email: "ada.admin@demo.invalid" } })).toMatchObject({ active: true, role: "admin" });
   });
 });
