@@ -50,6 +50,8 @@ type Scroll = { longTasks: number; maxMs: number; totalMs: number; frames: numbe
 // with a helper that does not exist inside the page.
 const SCROLL_SCRIPT = `async (sel, STEP) => {
   const el = document.querySelector(sel);
+  el.scrollTop = 0;
+  await new Promise((r) => setTimeout(r, 500));
   const tasks = [];
   const obs = new PerformanceObserver((list) => list.getEntries().forEach((e) => tasks.push(e.duration)));
   obs.observe({ type: "longtask" });
