@@ -1,12 +1,14 @@
 /**
- * `npm run bench`: speed of lib/reduction on a 1M-sample series, against a plain scan
- * loop and the reference libraries measured in the same run. Targets (issue): LTTB ≥ 50×
- * `downsample`, RDP perpendicular ≥ 2× `simplify-js` (highQuality), swinging door,
- * deadband and windowed mean ≥ 100 Msamples/s.
+ * `npx tsx bench/index.ts`: speed of lib/reduction on a 1M-sample series, against a plain
+ * scan loop and the reference libraries measured in the same run. Targets (issue): LTTB
+ * ≥ 50× `downsample`, RDP perpendicular ≥ 2× `simplify-js` (highQuality), swinging door,
+ * deadband and windowed mean ≥ 100 Msamples/s. Then every streaming processor in
+ * 4,096-sample chunks against its batch form, and `encodedBits` (bench/reduction-streaming.ts).
  */
 import { LTTB as downsampleLttb } from "downsample";
 import simplify from "simplify-js";
 import { aggregate, deadband, exceedances, ltob, lttb, m4, measure, rdp, swingingDoor, timeAbove } from "@/lib/reduction";
+import { CHUNK, encodedBitsRows, streamingRows } from "./reduction-streaming";
 import { benchSeries } from "./series";
 import { heapGrowthMb, peakRssMb, roundRobin, timeOnce } from "./timing";
 
@@ -152,6 +154,17 @@ console.log("references: 7 rounds alternating with our method after 2 warm-ups. 
 console.log("heap MB = V8 heap + ArrayBuffers grown by one run, measured right after it (after a full GC before it).");
 console.log(`Process peak RSS: ${fmt(peakRssMb(), 0)} MB (includes the reference libraries' point objects).\n`);
 for (const line of verdicts) console.log(line);
+
+// Streaming processors against their batch forms, and the Gorilla byte model.
+const STREAM_ROUNDS = 5;
+const STREAM_WARMUPS = 2;
+console.log(`\nStreaming: ${CHUNK.toLocaleString("en")}-sample chunks pushed, then finish; batch form in the same rounds (pairs, round-robin).\n`);
+printTable(
+  ["processor", "parameters", "stream ms best (median)", "stream Msamples/s", "batch ms best (median)", "stream / batch"],
+  streamingRows(s, STREAM_ROUNDS, STREAM_WARMUPS),
+);
+console.log("\nencodedBits (Gorilla, Pelkonen et al. 2015): delta-of-delta timestamps and XOR values in 2-hour blocks.\n");
+printTable(["series", "samples", "ms best (median)", "Msamples/s", "bits per sample"], encodedBitsRows(s, ROUNDS, WARMUPS));
 
 function verdict(what: string, ok: boolean, value: string): string {
   return `${ok ? "met    " : "NOT met"}  ${what}: ${value}`;

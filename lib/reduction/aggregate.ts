@@ -102,8 +102,9 @@ class StatisticKernel implements WindowKernel {
     readonly empty: number,
   ) {}
 
-  value(s: Samples, from: number, to: number): number {
-    const { v, q } = s;
+  value(s: Samples, from: number, to: number, _length: number, _start: number, _end: number, allUsable: boolean): number {
+    const { v } = s;
+    const q = allUsable ? undefined : s.q;
     if (to - from > this.scratch.length) this.scratch = new Float64Array(Math.max(to - from, 2 * this.scratch.length));
     let values = v;
     let a = from;

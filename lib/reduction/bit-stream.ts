@@ -4,10 +4,15 @@
  * two fields.
  */
 export class BitWriter {
-  private words = new Uint32Array(1024);
+  private words: Uint32Array;
   private word = 0;
   private used = 0;
   bitLength = 0;
+
+  /** `expected`: about how many 32-bit words will be written (the buffer grows past it). */
+  constructor(expected = 1024) {
+    this.words = new Uint32Array(Math.max(16, expected));
+  }
 
   /** Appends the low `bits` bits of `value` (0 ≤ bits ≤ 32, value < 2^bits). */
   write(value: number, bits: number): void {

@@ -134,12 +134,23 @@ function encode(s: Series, options: GorillaOptions): { writer: BitWriter; blockC
   if (!(t instanceof Float64Array) || !(v instanceof Float64Array)) throw new TypeError("series.t and series.v must be Float64Array");
   if (t.length !== v.length) throw new SeriesError(`series.v has ${v.length} samples but series.t has ${t.length}`, Math.min(t.length, v.length));
   const n = t.length;
-  const words = new Uint32Array(v.buffer, v.byteOffset, 2 * n);
+  const w = new BitWriter(n);
+  const counts = new Uint32Array(n);
+  const blocks = encodeSamples(t, new Uint32Array(v.buffer, v.byteOffset, 2 * n), resolution, blockTicks, w, counts);
+  return { writer: w, blockCounts: counts.slice(0, blocks), resolutionMs: resolution, blockMs: blockTicks * resolution };
+}
+
+/**
+ * Encodes every sample into `w` and counts samples per block into `counts`; returns the
+ * block count. The function ends with its loop, so V8's code compiled while the loop runs
+ * (on-stack replacement) stays valid when it ends (see lib/reduction/README.md).
+ */
+function encodeSamples(t: Float64Array, words: Uint32Array, resolution: number, blockTicks: number, w: BitWriter, counts: Uint32Array): number {
+  const n = t.length;
   const firstBits = firstDeltaBits(blockTicks);
-  const w = new BitWriter();
-  const counts: number[] = [];
-  let block = Number.NaN;
-  let prevTick = 0;
+  let blocks = 0;
+  let blockEnd = -Infinity;
+  let prevTick = -Infinity;
   let prevDelta = 0;
   let hi = 0;
   let lo = 0;
@@ -147,13 +158,15 @@ function encode(s: Series, options: GorillaOptions): { writer: BitWriter; blockC
   let trail = 0;
   for (let i = 0; i < n; i++) {
     const tick = t[i] / resolution;
-    if (!Number.isSafeInteger(tick) || (i > 0 && !(tick > prevTick))) throw timestampError(t, i, resolution);
+    if (!(tick > prevTick && tick <= Number.MAX_SAFE_INTEGER && tick >= -Number.MAX_SAFE_INTEGER && Math.floor(tick) === tick)) {
+      throw timestampError(t, i, resolution);
+    }
     const h = words[2 * i + HI];
     const l = words[2 * i + LO];
-    const start = Math.floor(tick / blockTicks) * blockTicks;
-    if (start !== block) {
-      block = start;
-      counts.push(1);
+    if (tick >= blockEnd) {
+      const start = Math.floor(tick / blockTicks) * blockTicks;
+      blockEnd = start + blockTicks;
+      counts[blocks++] = 1;
       const headHi = Math.floor(start / 2 ** 32);
       w.write(headHi >>> 0, 32);
       w.write(start - headHi * 2 ** 32, 32);
@@ -163,10 +176,18 @@ function encode(s: Series, options: GorillaOptions): { writer: BitWriter; blockC
       w.write(l, 32);
       lead = -1;
     } else {
-      counts[counts.length - 1]++;
+      counts[blocks - 1]++;
       const delta = tick - prevTick;
-      writeDod(w, delta - prevDelta);
+      const d = delta - prevDelta;
       prevDelta = delta;
+      if (d === 0) w.write(0, 1);
+      else if (d >= -63 && d <= 64) w.write(0x100 | (d + 63), 9); // '10' + 7 bits
+      else if (d >= -255 && d <= 256) w.write(0xc00 | (d + 255), 12); // '110' + 9 bits
+      else if (d >= -2047 && d <= 2048) w.write(0xe000 | (d + 2047), 16); // '1110' + 12 bits
+      else {
+        w.write(15, 4); // '1111' + 32 bits, two's complement
+        w.write(d >>> 0, 32);
+      }
       const xh = (h ^ hi) >>> 0;
       const xl = (l ^ lo) >>> 0;
       if (xh === 0 && xl === 0) {
@@ -192,7 +213,7 @@ function encode(s: Series, options: GorillaOptions): { writer: BitWriter; blockC
     hi = h;
     lo = l;
   }
-  return { writer: w, blockCounts: Uint32Array.from(counts), resolutionMs: resolution, blockMs: blockTicks * resolution };
+  return blocks;
 }
 
 /** Writes the `bits` bits of (xh, xl) above its `trail` trailing bits. */
@@ -214,23 +235,6 @@ function writeMeaningful(w: BitWriter, xh: number, xl: number, bits: number, tra
     w.write(sl, 32);
   } else {
     w.write(sl, bits);
-  }
-}
-
-function writeDod(w: BitWriter, d: number): void {
-  if (d === 0) w.write(0, 1);
-  else if (d >= -63 && d <= 64) {
-    w.write(2, 2);
-    w.write(d + 63, 7);
-  } else if (d >= -255 && d <= 256) {
-    w.write(6, 3);
-    w.write(d + 255, 9);
-  } else if (d >= -2047 && d <= 2048) {
-    w.write(14, 4);
-    w.write(d + 2047, 12);
-  } else {
-    w.write(15, 4);
-    w.write(d >>> 0, 32);
   }
 }
 

@@ -3,8 +3,11 @@ import type { ChangeOfStateParams } from "./discrete";
 import { optionalGap, optionalInterval, requireNonNegative } from "./params";
 import { keptQuality, type QualityFilterParams } from "./quality";
 import { QUALITY_BAD, type Series } from "./series";
-import { checkChunk, isInvalid, qualityAt, SampleBuilder, type StreamChunk, type StreamProcessor } from "./stream";
+import { checkChunk, SampleBuilder, type StreamChunk, type StreamProcessor } from "./stream";
 import type { SwingingDoorParams } from "./swinging-door";
+
+// Module-local copy: hot loops read it without going through an import binding.
+const BAD = QUALITY_BAD;
 
 /**
  * The loop every selection stream shares: checks each sample, drops late and invalid
@@ -29,19 +32,24 @@ abstract class SelectionStream implements StreamProcessor {
 
   push(chunk: Series): StreamChunk {
     checkChunk(chunk, this.finished);
-    const { t, v, q } = chunk;
+    this.scan(chunk.t, chunk.v, chunk.q);
+    return this.out.take();
+  }
+
+  /** Ends with its loop, so V8's code compiled while the loop runs stays valid (see README). */
+  private scan(t: Float64Array, v: Float64Array, q: Uint8Array | undefined): void {
     for (let i = 0; i < t.length; i++) {
       const ti = t[i];
       const vi = v[i];
-      const qi = qualityAt(q, i);
-      if (isInvalid(ti, vi, qi)) this.invalid++;
+      const qi = q === undefined ? 0 : q[i];
+      // The rules of stream.ts: x − x is 0 only for finite x.
+      if (ti - ti !== 0 || qi > BAD || (qi !== BAD && vi - vi !== 0)) this.invalid++;
       else if (!(ti > this.lastT)) this.late++;
       else {
         this.lastT = ti;
         this.accept(ti, vi, qi);
       }
     }
-    return this.out.take();
   }
 
   finish(): StreamChunk {
@@ -55,7 +63,7 @@ abstract class SelectionStream implements StreamProcessor {
 
   /** True when (t, q) starts a new stretch; then the previous sample is kept if it was not. */
   protected startsStretch(t: number, q: number): boolean {
-    if (this.started && !(t - this.pt > this.gapMs || q !== this.pq)) return false;
+    if (!(t - this.pt > this.gapMs || q !== this.pq) && this.started) return false;
     if (this.started && !this.prevKept) this.out.push(this.pt, this.pv, this.pq);
     this.started = true;
     return true;
@@ -90,21 +98,24 @@ class SwingingDoorStream extends SelectionStream {
       this.setPrevious(t, v, q, true);
       return;
     }
-    if (q === QUALITY_BAD) {
-      this.setPrevious(t, v, q, false);
-      return;
-    }
-    if (!this.prevKept) {
-      const slope = (v - this.va) / (t - this.ta);
-      if (t - this.ta > this.maxInterval || slope > this.upper || slope < this.lower) {
-        this.out.push(this.pt, this.pv, this.pq);
-        this.setAnchor(this.pt, this.pv);
+    // Within a stretch q equals the previous quality: only t, v and prevKept change.
+    if (q !== BAD) {
+      if (!this.prevKept) {
+        const slope = (v - this.va) / (t - this.ta);
+        if (t - this.ta > this.maxInterval || slope > this.upper || slope < this.lower) {
+          this.out.push(this.pt, this.pv, q);
+          this.setAnchor(this.pt, this.pv);
+        }
       }
+      const dt = t - this.ta;
+      const up = (v - this.va + this.deviation) / dt;
+      const lo = (v - this.va - this.deviation) / dt;
+      if (up < this.upper) this.upper = up;
+      if (lo > this.lower) this.lower = lo;
     }
-    const dt = t - this.ta;
-    this.upper = Math.min(this.upper, (v - this.va + this.deviation) / dt);
-    this.lower = Math.max(this.lower, (v - this.va - this.deviation) / dt);
-    this.setPrevious(t, v, q, false);
+    this.pt = t;
+    this.pv = v;
+    this.prevKept = false;
   }
 
   private setAnchor(t: number, v: number): void {
@@ -132,18 +143,22 @@ class DeadbandStream extends SelectionStream {
       this.keepAsReference(t, v, q);
       return;
     }
-    if (q === QUALITY_BAD) {
-      this.setPrevious(t, v, q, false);
-      return;
+    // Within a stretch q equals the previous quality: only t, v and prevKept change.
+    if (q !== BAD) {
+      if (t - this.tLast > this.maxInterval && !this.prevKept) {
+        this.out.push(this.pt, this.pv, q);
+        this.tLast = this.pt;
+        this.vLast = this.pv;
+      }
+      const d = v - this.vLast;
+      if (d > this.band || -d > this.band) {
+        this.keepAsReference(t, v, q);
+        return;
+      }
     }
-    if (t - this.tLast > this.maxInterval && !this.prevKept) {
-      this.out.push(this.pt, this.pv, this.pq);
-      this.tLast = this.pt;
-      this.vLast = this.pv;
-    }
-    const d = v - this.vLast;
-    if (d > this.band || -d > this.band) this.keepAsReference(t, v, q);
-    else this.setPrevious(t, v, q, false);
+    this.pt = t;
+    this.pv = v;
+    this.prevKept = false;
   }
 
   private keepAsReference(t: number, v: number, q: number): void {
@@ -156,7 +171,7 @@ class DeadbandStream extends SelectionStream {
 class ChangeOfStateStream extends SelectionStream {
   protected accept(t: number, v: number, q: number): void {
     if (this.startsStretch(t, q)) this.setPrevious(t, v, q, true);
-    else this.setPrevious(t, v, q, q !== QUALITY_BAD && v !== this.pv);
+    else this.setPrevious(t, v, q, q !== BAD && v !== this.pv);
   }
 }
 

@@ -5,9 +5,13 @@ import { crossingKernel, type ExceedanceEventParams, type ExceedanceParams, even
 import { requireNonNegative } from "./params";
 import type { Series } from "./series";
 import { type SignalParams, signalParams } from "./signal";
-import { checkChunk, isInvalid, qualityAt, SampleBuilder, type StreamChunk, type StreamParams, type StreamProcessor } from "./stream";
+import { QUALITY_BAD } from "./series";
+import { checkChunk, SampleBuilder, type StreamChunk, type StreamParams, type StreamProcessor } from "./stream";
 import { evaluateWindow, type Samples, type WindowKernel, type WindowSlot } from "./window-kernel";
 import { type WindowGrid, type WindowParams, windowGrid } from "./windows";
+
+// Module-local copy: hot loops read it without going through an import binding.
+const BAD = QUALITY_BAD;
 
 /**
  * The streaming form of every aggregation: it holds the samples of the windows not yet
@@ -54,20 +58,25 @@ class WindowStream implements StreamProcessor {
 
   push(chunk: Series): StreamChunk {
     checkChunk(chunk, this.finished);
-    const { t, v, q } = chunk;
+    this.scan(chunk.t, chunk.v, chunk.q);
+    this.emit(false);
+    this.compact();
+    return this.out.take();
+  }
+
+  /** Ends with its loop, so V8's code compiled while the loop runs stays valid (see README). */
+  private scan(t: Float64Array, v: Float64Array, q: Uint8Array | undefined): void {
     for (let i = 0; i < t.length; i++) {
       const ti = t[i];
       const vi = v[i];
-      const qi = qualityAt(q, i);
-      if (isInvalid(ti, vi, qi)) this.invalid++;
+      const qi = q === undefined ? 0 : q[i];
+      // The rules of stream.ts: x − x is 0 only for finite x.
+      if (ti - ti !== 0 || qi > BAD || (qi !== BAD && vi - vi !== 0)) this.invalid++;
       else if (ti > this.now) {
         this.append(ti, vi, qi);
         this.now = ti;
       } else this.insertLate(ti, vi, qi);
     }
-    this.emit(false);
-    this.compact();
-    return this.out.take();
   }
 
   finish(): StreamChunk {

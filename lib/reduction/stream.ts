@@ -1,4 +1,4 @@
-import { QUALITY_BAD, QUALITY_GOOD, type QualifiedSeries, type Series } from "./series";
+import type { QualifiedSeries, Series } from "./series";
 
 /** What a streaming processor emits from one call: samples with quality, and each window's good share for aggregations. */
 export type StreamChunk = QualifiedSeries & { goodShare?: Float64Array };
@@ -38,16 +38,6 @@ export function checkChunk(chunk: Series, finished: boolean): void {
   if (q !== undefined && (!(q instanceof Uint8Array) || q.length !== t.length)) {
     throw new TypeError("a chunk's q must be a Uint8Array as long as t");
   }
-}
-
-/** True when a sample breaks the data rules (see {@link StreamProcessor}). */
-export function isInvalid(t: number, v: number, q: number): boolean {
-  return t - t !== 0 || q > QUALITY_BAD || (q !== QUALITY_BAD && v - v !== 0);
-}
-
-/** The quality of sample i of a chunk (good when the chunk has none). */
-export function qualityAt(q: Uint8Array | undefined, i: number): number {
-  return q === undefined ? QUALITY_GOOD : q[i];
 }
 
 /** A growable output of samples (and good shares), taken as right-sized arrays. */

@@ -1,6 +1,9 @@
 import { IndexBuffer } from "./index-buffer";
 import { QUALITY_BAD, type Series, validateSeries } from "./series";
 
+// Module-local copy: hot loops read it without going through an import binding.
+const BAD = QUALITY_BAD;
+
 /**
  * The stretches of a series: it is cut before every sample that follows a gap (a step
  * longer than `gapMs`) or changes quality. Returns the start index of each stretch
@@ -35,7 +38,7 @@ export function selectByStretch(s: Series, gapMs: number, select: (stretch: Seri
   for (let k = 0; k + 1 < starts.length; k++) {
     const from = starts[k];
     const to = starts[k + 1];
-    if (q !== undefined && q[from] === QUALITY_BAD) {
+    if (q !== undefined && q[from] === BAD) {
       pushEnds(kept, from, to);
       continue;
     }
@@ -68,7 +71,7 @@ export function selectByStretchBudget(
   const { t, v, q } = s;
   const starts = stretchStarts(t, q, gapMs);
   const count = starts.length - 1;
-  const readable = (k: number) => (q === undefined || q[starts[k]] !== QUALITY_BAD) && starts[k + 1] - starts[k] > 2;
+  const readable = (k: number) => (q === undefined || q[starts[k]] !== BAD) && starts[k + 1] - starts[k] > 2;
   let ends = 0;
   let inner = 0;
   for (let k = 0; k < count; k++) {

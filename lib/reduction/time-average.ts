@@ -34,6 +34,7 @@ export function timeWeightedMean(
   gapMs: number,
 ): number {
   const { t, v, q } = s;
+  if (q === undefined && gapMs === Infinity) return plainTimeWeightedMean(t, v, from, to, length, start, end, linear);
   const last = to - 1;
   let area = 0;
   let covered = start;
@@ -69,6 +70,42 @@ export function timeWeightedMean(
   return time > 0 ? area / time : Number.NaN;
 }
 
+/** The same without quality and gaps: every interval is covered (the arithmetic is identical). */
+function plainTimeWeightedMean(
+  t: Float64Array,
+  v: Float64Array,
+  from: number,
+  to: number,
+  length: number,
+  start: number,
+  end: number,
+  linear: boolean,
+): number {
+  const last = to - 1;
+  let area = 0;
+  let covered = start;
+  if (from > 0) {
+    const tp = t[from - 1];
+    const vp = v[from - 1];
+    const vStart = linear ? vp + (start - tp) * ((v[from] - vp) / (t[from] - tp)) : vp;
+    area += linear ? 0.5 * (vStart + v[from]) * (t[from] - start) : vStart * (t[from] - start);
+  } else {
+    covered = t[from];
+  }
+  for (let i = from; i < last; i++) {
+    const dt = t[i + 1] - t[i];
+    area += linear ? 0.5 * (v[i] + v[i + 1]) * dt : v[i] * dt;
+  }
+  if (linear && to < length) {
+    const vEnd = v[last] + (end - t[last]) * ((v[to] - v[last]) / (t[to] - t[last]));
+    area += 0.5 * (v[last] + vEnd) * (end - t[last]);
+  } else {
+    area += v[last] * (end - t[last]);
+  }
+  const time = end - covered;
+  return time > 0 ? area / time : Number.NaN;
+}
+
 /**
  * Time (ms) within [start, end) during which the step-hold value matches: above
  * `level` (`equal` false) or equal to it (`equal` true). Coverage as for the step
@@ -89,6 +126,7 @@ export function timeMatching(
   gapMs: number,
 ): number {
   const { t, v, q } = s;
+  if (q === undefined && gapMs === Infinity && !equal) return plainTimeAbove(t, v, from, to, start, end, level);
   const last = to - 1;
   let ms = 0;
   if (from > 0 && (q === undefined || q[from - 1] <= usableMax) && !(t[from] - t[from - 1] > gapMs)) {
@@ -103,5 +141,15 @@ export function timeMatching(
   if ((equal ? x === level : x > level) && (q === undefined || q[last] <= usableMax) && !(to < length && t[to] - t[last] > gapMs)) {
     ms += end - t[last];
   }
+  return ms;
+}
+
+/** Time above without quality and gaps (the arithmetic of timeMatching, fewer tests per sample). */
+function plainTimeAbove(t: Float64Array, v: Float64Array, from: number, to: number, start: number, end: number, level: number): number {
+  const last = to - 1;
+  let ms = 0;
+  if (from > 0 && v[from - 1] > level) ms += t[from] - start;
+  for (let i = from; i < last; i++) if (v[i] > level) ms += t[i + 1] - t[i];
+  if (v[last] > level) ms += end - t[last];
   return ms;
 }

@@ -1,6 +1,11 @@
 import { QUALITY_BAD, QUALITY_GOOD, QUALITY_UNCERTAIN, type QualifiedSeries, type Series } from "./series";
 import { splitWindows, type WindowGrid } from "./windows";
 
+// Module-local copies: hot loops read them without going through import bindings.
+const GOOD = QUALITY_GOOD;
+const UNCERTAIN = QUALITY_UNCERTAIN;
+const BAD = QUALITY_BAD;
+
 /** What an aggregation returns: one sample per window, stamped with the window start. */
 export type WindowSeries = QualifiedSeries & {
   /**
@@ -30,10 +35,10 @@ export interface WindowKernel {
   readonly empty: number;
   /**
    * The value of window [start, end) holding samples [from, to) of `s`, at least one of
-   * them usable. The sample before it (from − 1) exists when from > 0, the one after it
-   * (to) when to < length.
+   * them usable (`allUsable` when every one is). The sample before it (from − 1) exists
+   * when from > 0, the one after it (to) when to < length.
    */
-  value(s: Samples, from: number, to: number, length: number, start: number, end: number): number;
+  value(s: Samples, from: number, to: number, length: number, start: number, end: number, allUsable: boolean): number;
 }
 
 /** The result of one window (reused between windows; no object per window). */
@@ -60,19 +65,19 @@ export function evaluateWindow(
     usable = 0;
     for (let i = from; i < to; i++) {
       const x = q[i];
-      if (x === QUALITY_GOOD) good++;
+      if (x === GOOD) good++;
       if (x <= usableMax) usable++;
     }
   }
   slot.goodShare = good / all;
   if (usable === 0) {
     slot.value = kernel.empty;
-    slot.quality = QUALITY_BAD;
+    slot.quality = BAD;
     return;
   }
-  const value = kernel.value(s, from, to, length, start, end);
+  const value = kernel.value(s, from, to, length, start, end, usable === all);
   slot.value = value;
-  slot.quality = kernel.nanIsBad && Number.isNaN(value) ? QUALITY_BAD : good === all ? QUALITY_GOOD : QUALITY_UNCERTAIN;
+  slot.quality = kernel.nanIsBad && Number.isNaN(value) ? BAD : good === all ? GOOD : UNCERTAIN;
 }
 
 /** Runs a kernel over the windows of a whole series (the batch form of every aggregation). */

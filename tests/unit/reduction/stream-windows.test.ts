@@ -80,9 +80,10 @@ const CASES: Case[] = [
 ];
 
 describe("streaming aggregations equal batch for random chunkings (fast-check)", () => {
-  for (const c of CASES) {
-    it(c.name, () => {
-      const shape = { quality: true, ...c.shape };
+  // Without quality the batch forms take their plain paths; a stream always carries quality.
+  for (const [c, quality] of CASES.flatMap((c) => [[c, true] as const, [c, false] as const])) {
+    it(`${c.name}${quality ? ", with quality" : ""}`, () => {
+      const shape = { quality, ...c.shape };
       fc.assert(
         fc.property(arbitrarySignal(shape), arbitraryCuts(), (s, cuts) => {
           if (shape.stepMs) s = { ...s, t: s.t.map((t) => t + Date.UTC(2026, 2, 27) - Date.UTC(2026, 0, 1)) };
