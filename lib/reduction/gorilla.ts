@@ -1,26 +1,13 @@
-import { BitReader, BitWriter } from "./bit-stream";
+import { BitWriter } from "./bit-stream";
+import { checkOptions, firstDeltaBits, type GorillaEncoded, type GorillaOptions, HI_WORD, LO_WORD } from "./gorilla-format";
 import { type Series, SeriesError } from "./series";
 
-export type GorillaOptions = {
-  /** Timestamp resolution in ms (default 1: epoch ms, lossless for Sluice's series; the paper uses 1000). */
-  resolutionMs?: number;
-  /** Block length in ms; each block starts with its own header (default 2 h, as in the paper). */
-  blockMs?: number;
-};
+// Module-local copies: hot loops read them without going through import bindings.
+const HI = HI_WORD;
+const LO = LO_WORD;
 
-export type GorillaEncoded = {
-  bytes: Uint8Array;
-  bitLength: number;
-  /** Samples per block, in order: framing a receiver keeps beside the bits (not counted in bitLength). */
-  blockCounts: Uint32Array;
-  resolutionMs: number;
-  blockMs: number;
-};
-
-const TWO_HOURS = 7_200_000;
-const LITTLE_ENDIAN = new Uint8Array(new Float64Array([1]).buffer)[7] === 0x3f;
-const HI = LITTLE_ENDIAN ? 1 : 0;
-const LO = 1 - HI;
+export type { GorillaEncoded, GorillaOptions } from "./gorilla-format";
+export { gorillaDecode } from "./gorilla-decode";
 
 /**
  * The exact size in bits of a series under Gorilla compression — T. Pelkonen et al.,
@@ -60,73 +47,6 @@ export function gorillaEncode(s: Series, options: GorillaOptions = {}): GorillaE
   return { bytes: writer.bytes(), bitLength: writer.bitLength, blockCounts, resolutionMs, blockMs };
 }
 
-/** Decodes {@link gorillaEncode}'s output, bit for bit (NaN payloads and −0 included). */
-export function gorillaDecode(e: GorillaEncoded): Series {
-  const [resolution, blockTicks] = checkOptions(e);
-  const firstBits = firstDeltaBits(blockTicks);
-  let n = 0;
-  for (const c of e.blockCounts) n += c;
-  const t = new Float64Array(n);
-  const v = new Float64Array(n);
-  const words = new Uint32Array(v.buffer);
-  const r = new BitReader(e.bytes, e.bitLength);
-  let i = 0;
-  for (const count of e.blockCounts) {
-    if (count === 0) continue;
-    const header = (r.read(32) | 0) * 2 ** 32 + r.read(32);
-    let delta = r.read(firstBits);
-    let tick = header + delta;
-    let hi = r.read(32);
-    let lo = r.read(32);
-    let lead = 0;
-    let trail = 0;
-    t[i] = tick * resolution;
-    words[2 * i + HI] = hi;
-    words[2 * i + LO] = lo;
-    i++;
-    for (let k = 1; k < count; k++, i++) {
-      delta += readDod(r);
-      tick += delta;
-      t[i] = tick * resolution;
-      if (r.read(1) === 1) {
-        if (r.read(1) === 1) {
-          lead = r.read(5);
-          const meaningful = r.read(6) || 64;
-          trail = 64 - lead - meaningful;
-        }
-        const bits = 64 - lead - trail;
-        const xh = bits > 32 ? r.read(bits - 32) : 0;
-        const xl = r.read(Math.min(bits, 32));
-        // Shift (xh, xl) left by `trail` back into place.
-        let sh: number;
-        let sl: number;
-        if (trail >= 32) {
-          sh = xl << (trail - 32);
-          sl = 0;
-        } else if (trail === 0) {
-          sh = xh;
-          sl = xl;
-        } else {
-          sh = (xh << trail) | (xl >>> (32 - trail));
-          sl = xl << trail;
-        }
-        hi = (hi ^ sh) >>> 0;
-        lo = (lo ^ sl) >>> 0;
-      }
-      words[2 * i + HI] = hi;
-      words[2 * i + LO] = lo;
-    }
-  }
-  return { t, v };
-}
-
-function readDod(r: BitReader): number {
-  if (r.read(1) === 0) return 0;
-  if (r.read(1) === 0) return r.read(7) - 63;
-  if (r.read(1) === 0) return r.read(9) - 255;
-  if (r.read(1) === 0) return r.read(12) - 2047;
-  return r.read(32) | 0;
-}
 
 function encode(s: Series, options: GorillaOptions): { writer: BitWriter; blockCounts: Uint32Array; resolutionMs: number; blockMs: number } {
   const [resolution, blockTicks] = checkOptions(options);
@@ -238,21 +158,6 @@ function writeMeaningful(w: BitWriter, xh: number, xl: number, bits: number, tra
   }
 }
 
-/** Width of the first delta: the paper's 14 bits, or as many as a block's ticks need. */
-function firstDeltaBits(blockTicks: number): number {
-  return Math.max(14, 32 - Math.clz32(blockTicks - 1));
-}
-
-function checkOptions(o: GorillaOptions): [number, number] {
-  const resolution = o.resolutionMs ?? 1;
-  const blockMs = o.blockMs ?? TWO_HOURS;
-  if (!(Number.isFinite(resolution) && resolution > 0)) throw new RangeError(`resolutionMs must be > 0, got ${resolution}`);
-  const blockTicks = blockMs / resolution;
-  if (!Number.isInteger(blockTicks) || blockTicks < 1 || blockTicks > 2 ** 31 - 1) {
-    throw new RangeError(`blockMs must be a whole number (1 to 2³¹ − 1) of resolutionMs, got ${blockMs}`);
-  }
-  return [resolution, blockTicks];
-}
 
 function timestampError(t: Float64Array, i: number, resolution: number): SeriesError {
   if (i > 0 && !(t[i] > t[i - 1])) return new SeriesError(`t[${i}] = ${t[i]} is not after t[${i - 1}] = ${t[i - 1]}`, i);

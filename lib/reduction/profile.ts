@@ -5,19 +5,15 @@
  * are seconds. The runner, `resolveSteps` and the streaming runner are re-exported here.
  */
 import type { AggregateFn } from "./aggregate";
+import type { TagKind } from "./profile-names";
 
-export const TAG_KINDS = ["analog", "discrete", "counter"] as const;
-/** Tag kinds (DESIGN.md "Tag", "Signals"), as in schemas/tag.ts. */
-export type TagKind = (typeof TAG_KINDS)[number];
+export { OUTPUT_NAME_PATTERN, TAG_KINDS, type TagKind } from "./profile-names";
 
 /** An absolute parameter in an engineering unit. */
 export type Abs = { value: number; unit: string };
 /** A parameter as a percent of the tag's engineering range (0 < percent ≤ 100). */
 export type Pct = { percent: number };
 export type Magnitude = Abs | Pct;
-
-/** Output names: appended to the tag name by the cloud. */
-export const OUTPUT_NAME_PATTERN = /^[a-z0-9][a-z0-9_-]{0,31}$/;
 
 export type Profile = {
   name: string;
@@ -112,6 +108,7 @@ export type ResolvedProfile = {
 
 export { ProfileError } from "./profile-error";
 export { METHODS, type MethodInfo, type ParamInfo } from "./methods";
-export { resolveSteps, validateProfile } from "./profile-resolve";
+export { resolveSteps } from "./profile-resolve";
+export { validateProfile } from "./profile-validate";
 export { runProfile, type OutputRun, type ProfileRun } from "./profile-run";
 export { createProfileStream, type ProfileStream, type StreamCounter } from "./profile-stream";
