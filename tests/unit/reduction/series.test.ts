@@ -4,18 +4,26 @@
 import { describe, expect, it } from "vitest";
 import {
   aggregate,
+  changeOfState,
+  counterDelta,
+  counterRate,
   deadband,
+  drop,
   exceedanceEvents,
   exceedances,
   ltob,
   lttb,
   m4,
   measure,
+  passThrough,
+  qualityFilter,
   rdp,
   type Series,
   SeriesError,
   swingingDoor,
   timeAbove,
+  timeInState,
+  transitionCount,
   validateSeries,
 } from "@/lib/reduction";
 import { randomWalk, series } from "./helpers";
@@ -37,6 +45,15 @@ const METHODS: [string, (s: Series) => unknown][] = [
   ["exceedanceEvents", (s) => exceedanceEvents(s, { windowMs: 60_000, threshold: 0, limit: 2 })],
   ["timeAbove", (s) => timeAbove(s, { windowMs: 60_000, threshold: 0 })],
   ["measure", (s) => measure(s, Uint32Array.from(s.t, (_, i) => i), { reconstruction: "linear" })],
+  ["changeOfState", (s) => changeOfState(s, { gapMs: 3000 })],
+  ["transitionCount", (s) => transitionCount(s, { windowMs: 60_000 })],
+  ["timeInState", (s) => timeInState(s, { windowMs: 60_000, state: 0, gapMs: 3000 })],
+  ["counterDelta", (s) => counterDelta(s, { windowMs: 60_000, rollover: 1e6 })],
+  ["counterRate", (s) => counterRate(s, { windowMs: 3_600_000, timeZone: "Europe/Berlin", rollover: 1e6 })],
+  ["qualityFilter", (s) => qualityFilter(s, { keep: "good" })],
+  ["passThrough", (s) => passThrough(s)],
+  ["swingingDoor with gaps", (s) => swingingDoor(s, { deviation: 0.5, gapMs: 3000 })],
+  ["aggregate with gaps", (s) => aggregate(s, { windowMs: 60_000, fn: "timeWeightedMean", gapMs: 3000 })],
 ];
 
 function errorOf(run: () => unknown): SeriesError {
@@ -97,6 +114,13 @@ describe("every method", () => {
       expect(() => run(series([1_000, 2_000], [1, 5]))).not.toThrow();
     });
   }
+});
+
+describe("drop", () => {
+  it("validates its input like every method and keeps nothing", () => {
+    expect(errorOf(() => drop(series([0, 2, 1], [0, 0, 0]))).index).toBe(2);
+    expect(drop(randomWalk(100, 3)).length).toBe(0);
+  });
 });
 
 describe("10M samples", () => {
