@@ -3,11 +3,12 @@ import type { ChangeOfStateParams } from "./discrete";
 import { optionalGap, optionalInterval, requireNonNegative } from "./params";
 import { keptQuality, type QualityFilterParams } from "./quality";
 import { QUALITY_BAD, type Series } from "./series";
-import { checkChunk, SampleBuilder, type StreamChunk, type StreamProcessor } from "./stream";
+import { checkChunk, MAX_TIME, SampleBuilder, type StreamChunk, type StreamProcessor } from "./stream";
 import type { SwingingDoorParams } from "./swinging-door";
 
-// Module-local copy: hot loops read it without going through an import binding.
+// Module-local copies: hot loops read them without going through import bindings.
 const BAD = QUALITY_BAD;
+const LATEST = MAX_TIME;
 
 /**
  * The loop every selection stream shares: checks each sample, drops late and invalid
@@ -42,8 +43,8 @@ abstract class SelectionStream implements StreamProcessor {
       const ti = t[i];
       const vi = v[i];
       const qi = q === undefined ? 0 : q[i];
-      // The rules of stream.ts: x − x is 0 only for finite x.
-      if (ti - ti !== 0 || qi > BAD || (qi !== BAD && vi - vi !== 0)) this.invalid++;
+      // The rules of stream.ts (x − x is 0 only for finite x; NaN fails every comparison).
+      if (!(ti <= LATEST && ti >= -LATEST) || qi > BAD || (qi !== BAD && vi - vi !== 0)) this.invalid++;
       else if (!(ti > this.lastT)) this.late++;
       else {
         this.lastT = ti;

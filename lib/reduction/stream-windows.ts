@@ -6,12 +6,13 @@ import { requireNonNegative } from "./params";
 import type { Series } from "./series";
 import { type SignalParams, signalParams } from "./signal";
 import { QUALITY_BAD } from "./series";
-import { checkChunk, SampleBuilder, type StreamChunk, type StreamParams, type StreamProcessor } from "./stream";
+import { checkChunk, MAX_TIME, SampleBuilder, type StreamChunk, type StreamParams, type StreamProcessor } from "./stream";
 import { evaluateWindow, type Samples, type WindowKernel, type WindowSlot } from "./window-kernel";
 import { type WindowGrid, type WindowParams, windowGrid } from "./windows";
 
-// Module-local copy: hot loops read it without going through an import binding.
+// Module-local copies: hot loops read them without going through import bindings.
 const BAD = QUALITY_BAD;
+const LATEST = MAX_TIME;
 
 /**
  * The streaming form of every aggregation: it holds the samples of the windows not yet
@@ -70,8 +71,8 @@ class WindowStream implements StreamProcessor {
       const ti = t[i];
       const vi = v[i];
       const qi = q === undefined ? 0 : q[i];
-      // The rules of stream.ts: x − x is 0 only for finite x.
-      if (ti - ti !== 0 || qi > BAD || (qi !== BAD && vi - vi !== 0)) this.invalid++;
+      // The rules of stream.ts (x − x is 0 only for finite x; NaN fails every comparison).
+      if (!(ti <= LATEST && ti >= -LATEST) || qi > BAD || (qi !== BAD && vi - vi !== 0)) this.invalid++;
       else if (ti > this.now) {
         this.append(ti, vi, qi);
         this.now = ti;
@@ -102,6 +103,13 @@ class WindowStream implements StreamProcessor {
       }
       while (this.reach < this.length && this.t[this.reach] < this.end) this.reach++;
       const to = this.reach;
+      if (to === this.head) {
+        // Float rounding left the head sample outside its own window (a window far
+        // shorter than the time's precision): drop it rather than loop.
+        this.invalid++;
+        this.head++;
+        continue;
+      }
       if (!final) {
         if (!this.sealed(this.end)) return;
         if (this.kernel.needsNext) {

@@ -11,8 +11,9 @@ export type StreamChunk = QualifiedSeries & { goodShare?: Float64Array };
  *
  * Data never throws: a sample not newer than the last one processed is counted in `late`
  * and dropped (aggregations accept it while its window is still open, see
- * stream-windows.ts); a sample with a non-finite time, a quality code above 2 or a
- * non-finite value without bad quality is counted in `invalid` and dropped. Misuse does:
+ * stream-windows.ts); a sample with a time outside the ECMAScript Date range (±8.64e15
+ * ms, non-finite included), a quality code above 2 or a non-finite value without bad
+ * quality is counted in `invalid` and dropped. Misuse does:
  * a chunk whose arrays are not typed arrays of one length, or a push after finish.
  */
 export interface StreamProcessor {
@@ -21,6 +22,9 @@ export interface StreamProcessor {
   readonly late: number;
   readonly invalid: number;
 }
+
+/** The largest |t| a stream accepts: the ECMAScript Date range (ECMA-262, Time Values and Time Range). */
+export const MAX_TIME = 8.64e15;
 
 /** Options every aggregation stream takes. */
 export type StreamParams = {

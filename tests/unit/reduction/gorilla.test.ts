@@ -119,9 +119,12 @@ const valueBits = fc.oneof(
 );
 
 const arbitrarySeries = fc
-  .array(fc.tuple(fc.constantFrom(1, 1, 1000, 1000, 999, 1001, 60_000, 7_200_000, 90_000_000_000), valueBits, fc.boolean()), { maxLength: 300 })
-  .map((rows) => {
-    let now = fc.sample(fc.integer({ min: -2e12, max: 4e12 }), { numRuns: 1, seed: rows.length })[0];
+  .tuple(
+    fc.integer({ min: -2e12, max: 4e12 }), // start: before 1970 too (negative block headers)
+    fc.array(fc.tuple(fc.constantFrom(1, 1, 1000, 1000, 999, 1001, 60_000, 7_200_000, 90_000_000_000), valueBits, fc.boolean()), { maxLength: 300 }),
+  )
+  .map(([start, rows]) => {
+    let now = start;
     const t = new Float64Array(rows.length);
     const v = new Float64Array(rows.length);
     const view = new DataView(v.buffer);

@@ -162,7 +162,7 @@ describe("aggregation streams accept late samples within the grace period", () =
 describe("streams never throw on data", () => {
   const garbage = fc.array(
     fc.tuple(
-      fc.oneof(fc.integer({ min: 0, max: 50 }), fc.constantFrom(Number.NaN, Number.POSITIVE_INFINITY)),
+      fc.oneof(fc.integer({ min: 0, max: 50 }), fc.constantFrom(Number.NaN, Number.POSITIVE_INFINITY, 1e300, -9e15)),
       fc.oneof(fc.double(), fc.constantFrom(Number.NaN)),
       fc.integer({ min: 0, max: 5 }),
     ),
@@ -185,12 +185,21 @@ describe("streams never throw on data", () => {
           const p = create();
           const out = runStream(p, chunksOf(s, cuts));
           for (let k = 1; k < out.t.length; k++) expect(out.t[k]).toBeGreaterThan(out.t[k - 1]);
-          const invalid = rows.filter(([t, v, q]) => !Number.isFinite(t) || q > 2 || (q !== 2 && !Number.isFinite(v))).length;
+          // Invalid: a time outside the ECMAScript Date range (±8.64e15 ms), a quality code above 2, a non-finite value unless bad.
+          const invalid = rows.filter(([t, v, q]) => !(Math.abs(t) <= 8.64e15) || q > 2 || (q !== 2 && !Number.isFinite(v))).length;
           expect(p.invalid).toBe(invalid);
         }
       }),
       { seed: 20270103, numRuns: 100 },
     );
+  });
+
+  it("a window shorter than the precision of its times drops its samples instead of looping", { timeout: 5_000 }, () => {
+    // Near 8.6e15 ms consecutive doubles are 1 ms apart: x + 0.25 rounds to x, so the window [x, x + 0.25) is empty.
+    const p = createAggregateStream({ windowMs: 0.25, fn: "mean" });
+    const out = runStream(p, [qseries([8.6e15, 8.6e15 + 1, 8.6e15 + 2], [1, 2, 3])]);
+    expect(out.t.length).toBe(0);
+    expect(p.invalid).toBe(3);
   });
 
   it("misuse throws: a push after finish, a chunk of mismatched arrays", () => {
