@@ -52,6 +52,7 @@ export function suits(method: StepMethod, kind: TagKind): boolean {
   return METHODS[method].kinds.includes(kind);
 }
 
+/** The error for a step that does not suit a kind, naming the output, step, method and kind. */
 export function unsuitable(output: string, step: number, method: StepMethod, kind: TagKind, whose: string): ProfileError {
   const fits = METHODS[method].kinds.join(", ");
   return new ProfileError(`${method} does not suit ${kind} tags (${whose} ${kind}); it suits ${fits}`, { output, step, method });
