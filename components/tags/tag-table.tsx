@@ -232,23 +232,31 @@ export function TagTable({ site, gateways, canEdit }: Readonly<Props>) {
 
 type RowProps = { row: Row<TagRow>; index: number; start: number; canEdit: boolean; selected: boolean; onEdit: (id: number) => void };
 
-/** One visible row; memoised so that scrolling renders only the rows that come into view. */
-const TagRowView = memo(function TagRowView({ row, index, start, canEdit, onEdit }: Readonly<RowProps>) {
+/** One visible row; memoised, and drawn without per-cell render contexts, so that scrolling allocates little. */
+const TagRowView = memo(function TagRowView({ row, index, start, canEdit, selected, onEdit }: Readonly<RowProps>) {
   const t = row.original;
   const style = { position: "absolute" as const, top: 0, left: 0, width: ROW_WIDTH, height: ROW_HEIGHT, transform: `translateY(${start}px)`, contain: "strict" as const };
+  const cells = [
+    canEdit ? <input type="checkbox" aria-label={`Select ${t.name}`} checked={selected} onChange={() => row.toggleSelected()} /> : null,
+    <span className="font-mono">{t.name}</span>,
+    t.unit,
+    formatPeriod(t.samplePeriodMs),
+    t.kind,
+    t.euLow === null ? <span className="text-ink-faint">—</span> : `${t.euLow} … ${t.euHigh}`,
+    t.area ?? "",
+    t.equipment ?? "",
+    t.gateway,
+    canEdit ? (
+      <button type="button" className="text-weir-600 hover:underline" aria-label={`Edit ${t.name}`} onClick={() => onEdit(t.id)}>
+        Edit
+      </button>
+    ) : null,
+  ];
   return (
     <div role="row" aria-rowindex={index + 2} className="flex items-center border-b border-panel-line text-label hover:bg-weir-50" style={style}>
-      {row.getVisibleCells().map((cell, i) => (
-        <div key={cell.column.id} role="cell" className="truncate px-2" style={{ width: `${WIDTHS[i]}rem`, flex: "none" }}>
-          {cell.column.id === "actions" ? (
-            canEdit ? (
-              <button type="button" className="text-weir-600 hover:underline" aria-label={`Edit ${t.name}`} onClick={() => onEdit(t.id)}>
-                Edit
-              </button>
-            ) : null
-          ) : (
-            flexRender(cell.column.columnDef.cell, cell.getContext())
-          )}
+      {cells.map((content, i) => (
+        <div key={i} role="cell" className="truncate px-2" style={{ width: `${WIDTHS[i]}rem`, flex: "none" }}>
+          {content}
         </div>
       ))}
     </div>

@@ -62,6 +62,18 @@ describe("tag inventory and groups in the browser", () => {
     const names = await page.getByRole("table", { name: "Tag inventory" }).getByRole("row").allTextContents();
     expect(names.join(" ")).toContain("CIP1/FT-201/PV");
 
+    // Inline edit: the row turns into inputs; a bad range is refused on the spot, a good one saved.
+    await page.getByRole("button", { name: "Edit CIP1/FT-201/PV" }).click();
+    const editor = page.getByRole("row", { name: "Editing CIP1/FT-201/PV" });
+    await editor.getByLabel("Range high").fill("-5");
+    await editor.getByRole("button", { name: "Save" }).click();
+    expect(await editor.textContent()).toContain("low must be below high");
+    await editor.getByLabel("Range high").fill("80");
+    await editor.getByLabel("Unit").fill("l/min");
+    await editor.getByRole("button", { name: "Save" }).click();
+    await page.getByRole("row", { name: /CIP1\/FT-201\/PV/ }).filter({ hasText: "l/min" }).waitFor();
+    expect(await page.getByRole("row", { name: /CIP1\/FT-201\/PV/ }).textContent()).toContain("0 … 80");
+
     await page.goto(`${BASE_URL}/sites/${slug}/groups/new`);
     await page.getByLabel("Group name").fill("pasteuriser-temperatures");
     await page.getByLabel("Tag name patterns").fill("PAST1/*/PV");
