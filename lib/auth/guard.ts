@@ -1,5 +1,6 @@
 import "server-only";
 import type { NextRequest } from "next/server";
+import { cache } from "react";
 import { HttpError } from "@/lib/http";
 import { can, type Permission, type Role } from "@/lib/permissions";
 import { User } from "@/models";
@@ -12,8 +13,15 @@ export type Actor = { id: number; email: string; name: string; role: Role };
  * so a role change or a deactivation takes effect on the next request.
  */
 export async function currentActor(req?: Request): Promise<Actor | null> {
-  const jar = req && "cookies" in req ? (req as NextRequest).cookies : req ? cookieJarOf(req) : undefined;
-  const id = await sessionUserId(jar);
+  if (!req) return sessionActor();
+  const jar = "cookies" in req ? (req as NextRequest).cookies : cookieJarOf(req);
+  return actorById(await sessionUserId(jar));
+}
+
+// Server components of one request (layout and page) share one read; outside a render, no caching.
+const sessionActor = cache(async () => actorById(await sessionUserId()));
+
+async function actorById(id: number | null): Promise<Actor | null> {
   if (id === null) return null;
   const user = await User.findByPk(id, { attributes: ["id", "email", "name", "role", "active"] });
   if (!user || !user.active) return null;

@@ -2,10 +2,10 @@ import "server-only";
 import { Op, type Transaction } from "sequelize";
 import type { Actor } from "@/lib/auth/guard";
 import { diffConfigs, type DraftEdit, type SiteConfig } from "@/lib/config/site-config";
-import { HttpError } from "@/lib/http";
 import { Change, ChangeAuthor, Site, User } from "@/models";
 import { assertCan } from "./access";
 import { loadWorkingConfig } from "./groups";
+import { siteBySlug } from "./sites";
 
 /**
  * The site's open change, created on the first edit and locked for the rest of the
@@ -53,8 +53,7 @@ export type DraftSummary = {
 /** What the site's open change holds: its authors and its edits against the current release. */
 export async function draftSummary(actor: Actor | null, siteSlug: string): Promise<DraftSummary> {
   assertCan(actor, "read");
-  const site = await Site.findOne({ where: { slug: siteSlug } });
-  if (!site) throw new HttpError(404, `no site with slug "${siteSlug}"`, "site");
+  const site = await siteBySlug(siteSlug);
   const change = await Change.findOne({
     where: { siteId: site.id, state: { [Op.ne]: "released" } },
     include: [{ model: ChangeAuthor, as: "authors", include: [{ model: User, as: "user", attributes: ["name", "email"] }] }],

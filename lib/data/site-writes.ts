@@ -7,7 +7,7 @@ import { Change, Gateway, Site, Tag, sequelize } from "@/models";
 import { gatewaySchema, siteSchema, type GatewayInput, type SiteInput } from "@/schemas/site";
 import { assertCan } from "./access";
 import { deletionBlockers } from "./deletion-blockers";
-import { presentGateway, presentSite, type GatewayView, type SiteView } from "./sites";
+import { presentGateway, presentSite, siteBySlug, type GatewayView, type SiteView } from "./sites";
 
 const siteSnapshot = (s: Site) => {
   const v = presentSite(s);
@@ -24,11 +24,7 @@ const siteSnapshot = (s: Site) => {
 
 const gatewaySnapshot = (g: Gateway) => ({ name: g.name, slug: g.slug, description: g.description, pollSeconds: g.pollSeconds });
 
-async function lockSite(slug: string, transaction: Transaction) {
-  const site = await Site.findOne({ where: { slug }, transaction, lock: transaction.LOCK.UPDATE });
-  if (!site) throw new HttpError(404, `no site with slug "${slug}"`, "site");
-  return site;
-}
+const lockSite = (slug: string, transaction: Transaction) => siteBySlug(slug, transaction, true);
 
 async function lockGateway(site: Site, slug: string, transaction: Transaction) {
   const gw = await Gateway.findOne({ where: { siteId: site.id, slug }, transaction, lock: transaction.LOCK.UPDATE });

@@ -1,4 +1,5 @@
 import "server-only";
+import type { Transaction } from "sequelize";
 import type { Actor } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http";
 import { Gateway, Site, sequelize } from "@/models";
@@ -43,6 +44,13 @@ export function presentGateway(g: Gateway): GatewayView {
   return { id: g.id, siteId: g.siteId, slug: g.slug, name: g.name, description: g.description, pollSeconds: g.pollSeconds };
 }
 
+/** A site by slug, or 404 naming the field; with `lock`, the row is locked for the transaction. */
+export async function siteBySlug(slug: string, transaction?: Transaction, lock = false): Promise<Site> {
+  const site = await Site.findOne({ where: { slug }, transaction, lock: lock && transaction ? transaction.LOCK.UPDATE : undefined });
+  if (!site) throw new HttpError(404, `no site with slug "${slug}"`, "site");
+  return site;
+}
+
 /** All sites with their gateway counts, by name. */
 export async function listSites(actor: Actor | null): Promise<SiteView[]> {
   assertCan(actor, "read");
@@ -59,8 +67,7 @@ export async function listSites(actor: Actor | null): Promise<SiteView[]> {
 /** One site by slug, or 404. */
 export async function getSite(actor: Actor | null, slug: string): Promise<SiteView> {
   assertCan(actor, "read");
-  const site = await Site.findOne({ where: { slug } });
-  if (!site) throw new HttpError(404, `no site with slug "${slug}"`, "site");
+  const site = await siteBySlug(slug);
   const n = await Gateway.count({ where: { siteId: site.id } });
   return presentSite(site, n);
 }
@@ -68,8 +75,7 @@ export async function getSite(actor: Actor | null, slug: string): Promise<SiteVi
 /** A site's gateways, by name. */
 export async function listGateways(actor: Actor | null, siteSlug: string): Promise<GatewayView[]> {
   assertCan(actor, "read");
-  const site = await Site.findOne({ where: { slug: siteSlug } });
-  if (!site) throw new HttpError(404, `no site with slug "${siteSlug}"`, "site");
+  const site = await siteBySlug(siteSlug);
   const rows = await Gateway.findAll({ where: { siteId: site.id }, order: [["name", "ASC"]] });
   return rows.map(presentGateway);
 }
@@ -77,8 +83,7 @@ export async function listGateways(actor: Actor | null, siteSlug: string): Promi
 /** One gateway of a site, or 404. */
 export async function getGateway(actor: Actor | null, siteSlug: string, gatewaySlug: string): Promise<GatewayView> {
   assertCan(actor, "read");
-  const site = await Site.findOne({ where: { slug: siteSlug } });
-  if (!site) throw new HttpError(404, `no site with slug "${siteSlug}"`, "site");
+  const site = await siteBySlug(siteSlug);
   const gw = await Gateway.findOne({ where: { siteId: site.id, slug: gatewaySlug } });
   if (!gw) throw new HttpError(404, `no gateway "${gatewaySlug}" at site "${siteSlug}"`, "gateway");
   return presentGateway(gw);

@@ -4,17 +4,14 @@ import { z } from "zod";
 import { recordAudit } from "@/lib/audit";
 import type { Actor } from "@/lib/auth/guard";
 import { HttpError } from "@/lib/http";
-import { Gateway, Site, Tag, sequelize } from "@/models";
+import { Gateway, Tag, sequelize } from "@/models";
 import { tagSchema, type TagValues } from "@/schemas/tag";
 import { assertCan } from "./access";
+import { siteBySlug } from "./sites";
 
 export type TagView = TagValues & { id: number };
 
-export async function siteBySlug(slug: string, transaction?: Transaction, lock = false): Promise<Site> {
-  const site = await Site.findOne({ where: { slug }, transaction, lock: lock && transaction ? transaction.LOCK.UPDATE : undefined });
-  if (!site) throw new HttpError(404, `no site with slug "${slug}"`, "site");
-  return site;
-}
+export { siteBySlug };
 
 async function gatewayMaps(siteId: number, transaction?: Transaction) {
   const gws = await Gateway.findAll({ where: { siteId }, attributes: ["id", "slug"], transaction });
