@@ -57,8 +57,12 @@ export function describeError(err: unknown): { status: number; body: ErrorBody; 
 }
 
 // Composite unique indexes, by name: the column the person typed, and what to call it.
-const UNIQUE_INDEX_FIELDS: Record<string, string> = { tags_site_name: "name", tag_groups_site_name: "name" };
-const UNIQUE_INDEX_WHAT: Record<string, string> = { tags_site_name: "tag name (at this site)", tag_groups_site_name: "group name (at this site)" };
+const UNIQUE_INDEX_FIELDS: Record<string, string> = { tags_site_name: "name", tag_groups_site_name: "name", profiles_name_unique: "name" };
+const UNIQUE_INDEX_WHAT: Record<string, string> = {
+  tags_site_name: "tag name (at this site)",
+  tag_groups_site_name: "group name (at this site)",
+  profiles_name_unique: "profile name",
+};
 
 function camel(s: string) {
   return s.replace(/_([a-z])/g, (_, c: string) => c.toUpperCase());

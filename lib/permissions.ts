@@ -70,6 +70,21 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   "POST /api/sites/[site]/groups/preview": "read",
   "GET /api/sites/[site]/coverage": "read",
   "GET /api/sites/[site]/draft": "read",
+  "POST /api/sites/[site]/draft/discard": "config.edit",
+  "GET /api/sites/[site]/assignments": "read",
+  "GET /api/sites/[site]/groups/[groupId]/assignment": "read",
+  "PUT /api/sites/[site]/groups/[groupId]/assignment": "config.edit",
+  "DELETE /api/sites/[site]/groups/[groupId]/assignment": "config.edit",
+  "GET /api/profiles": "read",
+  "POST /api/profiles": "config.edit",
+  "POST /api/profiles/import": "config.edit",
+  "GET /api/profiles/[profileId]": "read",
+  "PATCH /api/profiles/[profileId]": "config.edit",
+  "POST /api/profiles/[profileId]/revisions": "config.edit",
+  "GET /api/profiles/[profileId]/revisions/[revision]": "read",
+  "GET /api/profiles/[profileId]/diff": "read",
+  "POST /api/profiles/[profileId]/duplicate": "config.edit",
+  "GET /api/profiles/[profileId]/export": "read",
 };
 
 /**

@@ -1,8 +1,11 @@
 import "server-only";
 import { sequelize } from "@/lib/db";
+import { Assignment, AssignmentTagOverride, CautionAcknowledgement } from "./assignment";
 import { AuditEvent } from "./audit-event";
 import { Change, ChangeAuthor } from "./change";
 import { Gateway } from "./gateway";
+import { ProfileRevision, ReductionProfile } from "./profile";
+import { Release } from "./release";
 import { SignInThrottle } from "./sign-in-throttle";
 import { Site } from "./site";
 import { Tag } from "./tag";
@@ -22,6 +25,12 @@ if (!globalForModels.sluiceModelsReady || !User.sequelize) {
   TagGroupRule.initModel(sequelize);
   Change.initModel(sequelize);
   ChangeAuthor.initModel(sequelize);
+  ReductionProfile.initModel(sequelize);
+  ProfileRevision.initModel(sequelize);
+  Assignment.initModel(sequelize);
+  AssignmentTagOverride.initModel(sequelize);
+  CautionAcknowledgement.initModel(sequelize);
+  Release.initModel(sequelize);
 
   Site.hasMany(Gateway, { foreignKey: "siteId", as: "gateways" });
   Gateway.belongsTo(Site, { foreignKey: "siteId", as: "site" });
@@ -33,7 +42,35 @@ if (!globalForModels.sluiceModelsReady || !User.sequelize) {
   Site.hasMany(Change, { foreignKey: "siteId", as: "changes" });
   Change.hasMany(ChangeAuthor, { foreignKey: "changeId", as: "authors" });
   ChangeAuthor.belongsTo(User, { foreignKey: "userId", as: "user" });
+  ReductionProfile.hasMany(ProfileRevision, { foreignKey: "profileId", as: "revisions" });
+  ProfileRevision.belongsTo(ReductionProfile, { foreignKey: "profileId", as: "profile" });
+  ProfileRevision.belongsTo(User, { foreignKey: "createdBy", as: "author", constraints: false });
+  TagGroup.belongsTo(Site, { foreignKey: "siteId", as: "site" });
+  TagGroup.hasOne(Assignment, { foreignKey: "groupId", as: "assignment" });
+  Assignment.belongsTo(TagGroup, { foreignKey: "groupId", as: "group" });
+  Assignment.belongsTo(ProfileRevision, { foreignKey: "profileRevisionId", as: "revision" });
+  Assignment.hasMany(AssignmentTagOverride, { foreignKey: "assignmentId", as: "tagOverrides" });
+  AssignmentTagOverride.belongsTo(Tag, { foreignKey: "tagId", as: "tag" });
+  Site.hasMany(Release, { foreignKey: "siteId", as: "releases" });
   globalForModels.sluiceModelsReady = true;
 }
 
-export { sequelize, AuditEvent, Change, ChangeAuthor, Gateway, SignInThrottle, Site, Tag, TagGroup, TagGroupRule, User };
+export {
+  sequelize,
+  Assignment,
+  AssignmentTagOverride,
+  AuditEvent,
+  CautionAcknowledgement,
+  Change,
+  ChangeAuthor,
+  Gateway,
+  ProfileRevision,
+  ReductionProfile,
+  Release,
+  SignInThrottle,
+  Site,
+  Tag,
+  TagGroup,
+  TagGroupRule,
+  User,
+};

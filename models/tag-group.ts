@@ -1,3 +1,4 @@
+import type { Assignment } from "./assignment";
 import { DataTypes, Model, type CreationOptional, type InferAttributes, type InferCreationAttributes, type NonAttribute, type Sequelize } from "sequelize";
 
 export const RULE_FIELDS = ["pattern", "unit", "kind", "area", "equipment", "gateway", "min_period_ms", "max_period_ms", "include", "exclude"] as const;
@@ -34,6 +35,7 @@ export class TagGroup extends Model<InferAttributes<TagGroup>, InferCreationAttr
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare rules?: NonAttribute<TagGroupRule[]>;
+  declare assignment?: NonAttribute<Assignment | null>;
 
   static initModel(sequelize: Sequelize) {
     TagGroup.init(

@@ -382,7 +382,9 @@ async function serve(dev) {
 }
 
 function vitestRun(project, env, reportFile) {
-  const args = ["run", "--project", project, "--reporter=default", "--reporter=json", `--outputFile.json=${reportFile}`];
+  // Words after the project names narrow the run to test files whose path contains them.
+  const filters = parts.filter((p) => !["unit", "integration", "e2e"].includes(p));
+  const args = ["run", "--project", project, "--reporter=default", "--reporter=json", `--outputFile.json=${reportFile}`, ...filters];
   return run(bin("vitest"), args, { env });
 }
 

@@ -3,7 +3,8 @@ import { encode } from "next-auth/jwt";
 import { NextRequest } from "next/server";
 import bcrypt from "bcryptjs";
 import type { Role } from "@/lib/permissions";
-import { Gateway, Site, Tag, TagGroup, TagGroupRule, User } from "@/models";
+import type { Profile } from "@/lib/reduction/profile";
+import { Assignment, Gateway, ProfileRevision, ReductionProfile, Site, Tag, TagGroup, TagGroupRule, User } from "@/models";
 import { setSessionCookie } from "./integration/cookie-jar";
 
 const unique = () => randomUUID().slice(0, 8);
@@ -62,6 +63,37 @@ export async function createGroup(site: Site, over: Partial<{ name: string; prio
   const patterns = over.patterns ?? ["AREA/*/PV"];
   await TagGroupRule.bulkCreate(patterns.map((value, position) => ({ groupId: group.id, position, field: "pattern" as const, value })));
   return group;
+}
+
+/** A shape profile document for analog temperatures (swinging door, 0.5 degC). */
+export function profileDocument(over: Partial<Profile> = {}): Profile {
+  return {
+    name: over.name ?? `Profile ${unique()}`,
+    kinds: over.kinds ?? ["analog"],
+    ...(over.description !== undefined ? { description: over.description } : {}),
+    outputs: over.outputs ?? [
+      {
+        name: "shape",
+        steps: [
+          { method: "quality-filter", keep: "good" },
+          { method: "swinging-door", deviation: { value: 0.5, unit: "degC" }, "max-interval": 600 },
+        ],
+      },
+    ],
+  };
+}
+
+/** A profile with its first revision, created directly (no audit). */
+export async function createProfile(over: Partial<Profile> = {}) {
+  const document = profileDocument(over);
+  const profile = await ReductionProfile.create({ name: document.name, description: document.description ?? "", kinds: document.kinds.join(","), latestRevision: 1, createdBy: null });
+  const revision = await ProfileRevision.create({ profileId: profile.id, number: 1, document, note: "factory", createdBy: null });
+  return { profile, revision };
+}
+
+/** Pins a revision to a group, created directly (no draft bookkeeping). */
+export async function createAssignment(group: TagGroup, revision: ProfileRevision) {
+  return Assignment.create({ groupId: group.id, profileRevisionId: revision.id, overrides: [], updatedBy: null });
 }
 
 /** A real next-auth session cookie for the user, signed with the app's secret. */

@@ -2,7 +2,7 @@ import "server-only";
 import { Op, type Transaction } from "sequelize";
 import type { Actor } from "@/lib/auth/guard";
 import { diffConfigs, type DraftEdit, type SiteConfig } from "@/lib/config/site-config";
-import { Change, ChangeAuthor, Site, User } from "@/models";
+import { Change, ChangeAuthor, Release, Site, User } from "@/models";
 import { assertCan } from "./access";
 import { loadWorkingConfig } from "./groups";
 import { siteBySlug } from "./sites";
@@ -32,14 +32,15 @@ export async function touchDraft(actor: Actor, siteId: number, transaction: Tran
 }
 
 /** The number of the site's current release; null until the site has one. */
-export async function currentReleaseNumber(_siteId: number, _transaction?: Transaction): Promise<number | null> {
-  // Releases are stored by the release workflow; before the first release there is none.
-  return null;
+export async function currentReleaseNumber(siteId: number, transaction?: Transaction): Promise<number | null> {
+  const latest = await Release.findOne({ where: { siteId }, order: [["number", "DESC"]], attributes: ["number"], transaction });
+  return latest?.number ?? null;
 }
 
 /** The configuration of the site's current release (empty before the first release). */
-export async function loadBaseConfig(_siteId: number): Promise<SiteConfig> {
-  return { groups: [] };
+export async function loadBaseConfig(siteId: number, transaction?: Transaction): Promise<SiteConfig> {
+  const latest = await Release.findOne({ where: { siteId }, order: [["number", "DESC"]], attributes: ["config"], transaction });
+  return latest?.config ?? { groups: [] };
 }
 
 export type DraftSummary = {

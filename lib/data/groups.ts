@@ -10,6 +10,7 @@ import { assignGroups, previewSelector } from "@/lib/tags/selector";
 import { TagGroup, TagGroupRule, sequelize } from "@/models";
 import { groupSchema, selectorSchema } from "@/schemas/tag";
 import { assertCan } from "./access";
+import { ASSIGNMENT_INCLUDE, assignmentConfig } from "./assignment-config";
 import { touchDraft } from "./drafts";
 import { allTagValues, siteBySlug } from "./tags";
 
@@ -18,7 +19,7 @@ export type GroupView = GroupConfig & { id: number; tagCount: number; matchCount
 async function loadGroups(siteId: number, transaction?: Transaction) {
   return TagGroup.findAll({
     where: { siteId },
-    include: [{ model: TagGroupRule, as: "rules" }],
+    include: [{ model: TagGroupRule, as: "rules" }, ...ASSIGNMENT_INCLUDE],
     order: [["priority", "ASC"], ["name", "ASC"], [{ model: TagGroupRule, as: "rules" }, "position", "ASC"]],
     transaction,
   });
@@ -30,6 +31,7 @@ const toConfig = (g: TagGroup): GroupConfig => ({
   priority: g.priority,
   regulated: g.regulated,
   selector: rulesToSelector(g.rules ?? []),
+  assignment: assignmentConfig(g.assignment ?? null),
 });
 
 /** The site's configuration as it stands now, draft edits included. */
@@ -55,7 +57,7 @@ export async function getGroup(actor: Actor | null, siteSlug: string, id: number
   return group;
 }
 
-async function writeRules(groupId: number, selector: GroupConfig["selector"], transaction: Transaction) {
+export async function writeRules(groupId: number, selector: GroupConfig["selector"], transaction: Transaction) {
   await TagGroupRule.destroy({ where: { groupId }, transaction });
   const rules = selectorToRules(selector).map((r, position) => ({ ...r, groupId, position }));
   if (rules.length) await TagGroupRule.bulkCreate(rules, { transaction });
@@ -84,7 +86,7 @@ export async function createGroup(actor: Actor | null, siteSlug: string, input: 
 }
 
 async function lockGroup(siteId: number, id: number, transaction: Transaction) {
-  const group = await TagGroup.findOne({ where: { id, siteId }, include: [{ model: TagGroupRule, as: "rules" }], transaction, lock: transaction.LOCK.UPDATE });
+  const group = await TagGroup.findOne({ where: { id, siteId }, include: [{ model: TagGroupRule, as: "rules" }, ...ASSIGNMENT_INCLUDE], transaction, lock: transaction.LOCK.UPDATE });
   if (!group) throw new HttpError(404, `no group with id ${id} at this site`, "group");
   group.rules?.sort((a, b) => a.position - b.position);
   return group;
@@ -164,7 +166,7 @@ export async function previewGroup(actor: Actor | null, siteSlug: string, input:
   const ahead = groups.filter((g) => g.id !== groupId && (!self || g.priority < self.priority || (g.priority === self.priority && g.name < self.name)));
   const preview = { ...own, wonElsewhere: 0, total: tags.length };
   if (ahead.length && own.count) {
-    const withSelf = [...ahead.map(toConfig), { name: "\u0000preview", description: "", priority: Number.MAX_SAFE_INTEGER, regulated: false, selector }];
+    const withSelf = [...ahead.map(toConfig), { name: "\u0000preview", description: "", priority: Number.MAX_SAFE_INTEGER, regulated: false, selector, assignment: null }];
     const res = assignGroups(tags, withSelf);
     preview.wonElsewhere = own.count - (res.counts.get("\u0000preview") ?? 0);
   }

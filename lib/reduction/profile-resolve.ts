@@ -97,7 +97,7 @@ function checkTag(tag: ProfileTag): void {
 }
 
 /** A copy of the profile with the overrides applied in order (later ones win). */
-function applyOverrides(profile: Profile, ctx: RunContext): Profile {
+export function applyOverrides(profile: Profile, ctx: Pick<RunContext, "overrides">): Profile {
   const overrides = ctx.overrides ?? [];
   if (overrides.length === 0 || !isObject(profile) || !Array.isArray(profile.outputs)) return profile;
   const outputs = profile.outputs.map((o) => ({ ...o, steps: Array.isArray(o.steps) ? o.steps.map((s) => ({ ...s })) : o.steps }));

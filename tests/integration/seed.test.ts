@@ -10,7 +10,7 @@ const seedersDir = path.resolve("seeders");
 
 async function counts() {
   const out: Record<string, number> = {};
-  for (const t of ["users", "sites", "gateways", "tags", "tag_groups", "tag_group_rules"]) {
+  for (const t of ["users", "sites", "gateways", "tags", "tag_groups", "tag_group_rules", "profiles", "profile_revisions", "assignments", "assignment_tag_overrides", "caution_acknowledgements", "releases", "changes"]) {
     const [r] = await sequelize.query<{ n: number }>(`SELECT COUNT(*) AS n FROM ${t}`, { type: QueryTypes.SELECT });
     out[t] = r.n;
   }

@@ -1,6 +1,7 @@
 import { randomUUID } from "node:crypto";
-import type { Gateway, Site, Tag } from "@/models";
-import { createGateway, createGroup, createSite, createTag, createUser } from "../../factories";
+import { Change, type Gateway, type Site, type Tag } from "@/models";
+import { profileToYaml } from "@/lib/profiles/yaml";
+import { createAssignment, createGateway, createGroup, createProfile, createSite, createTag, createUser, profileDocument } from "../../factories";
 
 // One valid request per route and one valid input per server action, so that an allowed
 // role gets a success and the matrix measures authorisation alone. Called once per role:
@@ -48,7 +49,7 @@ export const groupBody = () => ({
 
 export const gatewayBody = () => ({ name: `Matrix gateway ${u()}`, slug: `mgw-${u()}`, description: "", pollSeconds: 60 });
 
-type RouteSample = (fx: Fixture) => Promise<{ path: string; params?: Record<string, string>; body?: unknown }>;
+type RouteSample = (fx: Fixture) => Promise<{ path: string; params?: Record<string, string>; body?: unknown; rawBody?: string }>;
 
 export const ROUTE_SAMPLES: Record<string, RouteSample> = {
   "GET /api/health": async () => ({ path: "/api/health" }),
@@ -138,6 +139,40 @@ export const ROUTE_SAMPLES: Record<string, RouteSample> = {
   "POST /api/sites/[site]/groups/preview": async (fx) => ({ path: "/", params: { site: fx.site.slug }, body: { selector: groupBody().selector } }),
   "GET /api/sites/[site]/coverage": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
   "GET /api/sites/[site]/draft": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
+  "POST /api/sites/[site]/draft/discard": async () => {
+    const site = await createSite();
+    await createGroup(site, { name: "to-discard" });
+    await Change.create({ siteId: site.id, baseRelease: null, createdBy: null });
+    return { path: "/", params: { site: site.slug }, body: { all: true } };
+  },
+  "GET /api/sites/[site]/assignments": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
+  "GET /api/sites/[site]/groups/[groupId]/assignment": async (fx) => {
+    const g = await createGroup(fx.site);
+    return { path: "/", params: { site: fx.site.slug, groupId: String(g.id) } };
+  },
+  "PUT /api/sites/[site]/groups/[groupId]/assignment": async (fx) => {
+    const g = await createGroup(fx.site, { patterns: ["NOWHERE/*"] });
+    const { profile } = await createProfile();
+    return { path: "/", params: { site: fx.site.slug, groupId: String(g.id) }, body: { profileId: profile.id, revision: 1 } };
+  },
+  "DELETE /api/sites/[site]/groups/[groupId]/assignment": async (fx) => {
+    const g = await createGroup(fx.site, { patterns: ["NOWHERE/*"] });
+    await createAssignment(g, (await createProfile()).revision);
+    return { path: "/", params: { site: fx.site.slug, groupId: String(g.id) } };
+  },
+  "GET /api/profiles": async () => ({ path: "/api/profiles?status=all" }),
+  "POST /api/profiles": async () => ({ path: "/api/profiles", body: { document: profileDocument(), note: "matrix" } }),
+  "POST /api/profiles/import": async () => ({ path: "/api/profiles/import", rawBody: profileToYaml(profileDocument()) }),
+  "GET /api/profiles/[profileId]": async () => ({ path: "/", params: { profileId: String((await createProfile()).profile.id) } }),
+  "PATCH /api/profiles/[profileId]": async () => ({ path: "/", params: { profileId: String((await createProfile()).profile.id) }, body: { archived: true } }),
+  "POST /api/profiles/[profileId]/revisions": async () => {
+    const { profile, revision } = await createProfile();
+    return { path: "/", params: { profileId: String(profile.id) }, body: { document: { ...revision.document, description: "changed" }, note: "matrix", baseRevision: 1 } };
+  },
+  "GET /api/profiles/[profileId]/revisions/[revision]": async () => ({ path: "/", params: { profileId: String((await createProfile()).profile.id), revision: "1" } }),
+  "GET /api/profiles/[profileId]/diff": async () => ({ path: "/api/profiles/x/diff?from=1&to=1", params: { profileId: String((await createProfile()).profile.id) } }),
+  "POST /api/profiles/[profileId]/duplicate": async () => ({ path: "/", params: { profileId: String((await createProfile()).profile.id) }, body: { name: `Copy ${u()}` } }),
+  "GET /api/profiles/[profileId]/export": async () => ({ path: "/", params: { profileId: String((await createProfile()).profile.id) } }),
 };
 
 export const ACTION_SAMPLES: Record<string, (fx: Fixture) => Promise<unknown>> = {
