@@ -7,7 +7,9 @@ const TABS = [
   { path: "", label: "Summary" },
   { path: "/tags", label: "Tags" },
   { path: "/groups", label: "Groups" },
+  { path: "/assignments", label: "Assignments" },
   { path: "/coverage", label: "Coverage" },
+  { path: "/draft", label: "Draft change" },
 ];
 
 /** The sections of one site. */

@@ -1,6 +1,6 @@
 "use client";
 
-import { useRef, useState, type ReactNode } from "react";
+import { useId, useRef, useState, type ReactNode } from "react";
 import { Button } from "./button";
 
 type Props = {
@@ -16,14 +16,15 @@ type Props = {
 export function ConfirmButton({ label, title, children, confirmLabel, tone = "danger", onConfirm }: Readonly<Props>) {
   const dialog = useRef<HTMLDialogElement>(null);
   const [busy, setBusy] = useState(false);
+  const headingId = useId();
   return (
     <>
       <Button tone={tone === "danger" ? "quiet" : "primary"} className={tone === "danger" ? "text-fault" : ""} onClick={() => dialog.current?.showModal()}>
         {label}
       </Button>
-      <dialog ref={dialog} aria-labelledby={`${title}-title`} className="m-auto w-full max-w-md rounded-panel bg-panel p-0 shadow-xl backdrop:bg-ink/40">
+      <dialog ref={dialog} aria-labelledby={headingId} className="m-auto w-full max-w-md rounded-panel bg-panel p-0 shadow-xl backdrop:bg-ink/40">
         <div className="p-5">
-          <h2 id={`${title}-title`} className="text-title">
+          <h2 id={headingId} className="text-title">
             {title}
           </h2>
           <div className="mt-2 text-ink-soft">{children}</div>

@@ -21,7 +21,7 @@ export default async function SiteLayout({ params, children }: Readonly<Props>) 
         actions={
           draft.edits.length > 0 ? (
             <Link
-              href={`/sites/${site.slug}/groups#draft`}
+              href={`/sites/${site.slug}/draft`}
               data-testid="draft-badge"
               className="rounded-panel border border-caution bg-caution-soft px-3 py-1.5 text-label font-medium"
             >

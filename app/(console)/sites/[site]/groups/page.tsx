@@ -1,9 +1,9 @@
 import Link from "next/link";
+import { DraftPanel } from "@/components/drafts/draft-panel";
 import { GroupOrderButtons } from "@/components/groups/group-order-buttons";
 import { selectorSummary } from "@/components/groups/selector-summary";
 import { EmptyState } from "@/components/ui/empty-state";
 import { currentActor } from "@/lib/auth/guard";
-import { describeEdit } from "@/lib/config/site-config";
 import { draftSummary } from "@/lib/data/drafts";
 import { listGroups } from "@/lib/data/groups";
 import { can } from "@/lib/permissions";
@@ -47,6 +47,9 @@ export default async function GroupsPage({ params }: Readonly<Props>) {
                   {g.regulated ? <span className="ml-2 rounded bg-caution-soft px-1.5 py-0.5 text-micro text-caution">regulated record</span> : null}
                   <p className="truncate text-micro text-ink-faint">{selectorSummary(g.selector)}</p>
                 </div>
+                <Link href={`/sites/${site}/groups/${g.id}/assignment`} className="text-label text-weir-700 hover:underline" aria-label={`Assignment of ${g.name}`}>
+                  {g.assignment ? `${g.assignment.profile} · r${g.assignment.revision}` : "Assign a profile"}
+                </Link>
                 <span className="text-label" data-testid={`group-count-${g.name}`}>
                   {g.tagCount.toLocaleString("en")} tags
                   {g.matchCount > g.tagCount ? <span className="text-ink-faint"> ({(g.matchCount - g.tagCount).toLocaleString("en")} won by groups above)</span> : null}
@@ -56,26 +59,7 @@ export default async function GroupsPage({ params }: Readonly<Props>) {
           </ol>
         )}
       </section>
-      <section id="draft" aria-labelledby="draft-heading" className="rounded-panel border border-panel-line bg-panel p-4">
-        <h2 id="draft-heading" className="text-lead font-medium">
-          Draft change
-        </h2>
-        {draft.edits.length === 0 ? (
-          <p className="mt-1 text-label text-ink-soft">No edits since the current release.</p>
-        ) : (
-          <>
-            <p className="mt-1 text-label text-ink-soft">
-              {draft.edits.length} edit{draft.edits.length === 1 ? "" : "s"} since {draft.baseRelease ? `release ${draft.baseRelease}` : "the start (no release yet)"}
-              {draft.authors.length ? ` by ${draft.authors.map((a) => a.name).join(", ")}` : ""}. Gateways receive them only once the change is reviewed and released.
-            </p>
-            <ul className="mt-2 list-disc pl-5 text-label" aria-label="Draft edits">
-              {draft.edits.map((e, i) => (
-                <li key={i}>{describeEdit(e)}</li>
-              ))}
-            </ul>
-          </>
-        )}
-      </section>
+      <DraftPanel site={site} draft={draft} canEdit={canEdit} linkToPage />
     </>
   );
 }

@@ -1,3 +1,4 @@
+import Link from "next/link";
 import { notFound } from "next/navigation";
 import { GroupEditor } from "@/components/groups/group-editor";
 import { currentActor } from "@/lib/auth/guard";
@@ -21,6 +22,11 @@ export default async function GroupPage({ params }: Readonly<Props>) {
         Group {group.name}
         <span className="ml-2 text-label font-normal text-ink-faint">{group.tagCount.toLocaleString("en")} tags</span>
       </h2>
+      <p className="mb-4 text-label">
+        <Link href={`/sites/${site}/groups/${id}/assignment`} className="text-weir-700 hover:underline">
+          {group.assignment ? `Assigned: ${group.assignment.profile} revision ${group.assignment.revision} — change` : "Assign a profile"}
+        </Link>
+      </p>
       <GroupEditor site={site} gateways={gateways} existing={group} canEdit={!!actor && can(actor.role, "config.edit")} />
     </>
   );
