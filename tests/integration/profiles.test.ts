@@ -131,3 +131,44 @@ describe("profile library API", () => {
     expect((await createRoute(await request("POST", "/api/profiles", { body: { document: profileDocument() } }), undefined)).status).toBe(401);
   });
 });
+
+describe("every profile and assignment route refuses bad input with a 4xx naming the field", () => {
+  it("answers each route's bad input", async () => {
+    const { createProfile, createSite, createGroup } = await import("../factories");
+    const { GET: assignmentsRoute } = await import("@/app/api/sites/[site]/assignments/route");
+    const { GET: groupAssignmentRoute, DELETE: removeRoute } = await import("@/app/api/sites/[site]/groups/[groupId]/assignment/route");
+    const { POST: discardRoute } = await import("@/app/api/sites/[site]/draft/discard/route");
+    const engineer = await createUser({ role: "engineer" });
+    const { profile } = await createProfile();
+    const id = String(profile.id);
+    const site = await createSite();
+    const group = await createGroup(site);
+    const cases: [string, Promise<Response>, number, string][] = [
+      ["list status", listRoute(await request("GET", "/api/profiles?status=gone", { user: engineer }), undefined), 422, "status"],
+      ["list kind", listRoute(await request("GET", "/api/profiles?kind=liquid", { user: engineer }), undefined), 422, "kind"],
+      ["get id", getRoute(await request("GET", "/", { user: engineer }), ctx({ profileId: "abc" })), 422, ""],
+      ["archive flag", patchRoute(await request("PATCH", "/", { user: engineer, body: { archived: "yes" } }), ctx({ profileId: id })), 422, "archived"],
+      ["revise note", reviseRoute(await request("POST", "/", { user: engineer, body: { document: profileDocument(), note: "x".repeat(501) } }), ctx({ profileId: id })), 422, "note"],
+      ["revise base", reviseRoute(await request("POST", "/", { user: engineer, body: { document: profileDocument(), baseRevision: 0 } }), ctx({ profileId: id })), 422, "baseRevision"],
+      ["revision missing", revisionRoute(await request("GET", "/", { user: engineer }), ctx({ profileId: id, revision: "9" })), 404, "revision"],
+      ["diff from", diffRoute(await request("GET", `/api/profiles/${id}/diff?to=1`, { user: engineer }), ctx({ profileId: id })), 422, "from"],
+      ["diff missing", diffRoute(await request("GET", `/api/profiles/${id}/diff?from=1&to=3`, { user: engineer }), ctx({ profileId: id })), 404, "revision"],
+      ["duplicate name", duplicateRoute(await request("POST", "/", { user: engineer, body: { name: " " } }), ctx({ profileId: id })), 422, "name"],
+      ["duplicate taken", duplicateRoute(await request("POST", "/", { user: engineer, body: { name: profile.name } }), ctx({ profileId: id })), 409, "name"],
+      ["export revision", exportRoute(await request("GET", `/api/profiles/${id}/export?revision=4`, { user: engineer }), ctx({ profileId: id })), 404, "revision"],
+      ["import empty", importRoute(await request("POST", "/api/profiles/import", { user: engineer, rawBody: "  " }), undefined), 422, "file"],
+      ["import too big", importRoute(await request("POST", "/api/profiles/import", { user: engineer, rawBody: "#".repeat(300 * 1024) }), undefined), 413, "file"],
+      ["assignments site", assignmentsRoute(await request("GET", "/", { user: engineer }), ctx({ site: "no-such-site" })), 404, "site"],
+      ["assignment group", groupAssignmentRoute(await request("GET", "/", { user: engineer }), ctx({ site: site.slug, groupId: "999999" })), 404, "group"],
+      ["remove unassigned", removeRoute(await request("DELETE", "/", { user: engineer }), ctx({ site: site.slug, groupId: String(group.id) })), 404, "group"],
+      ["discard body", discardRoute(await request("POST", "/", { user: engineer, body: { edits: [] } }), ctx({ site: site.slug })), 422, "edits"],
+    ];
+    for (const [what, pending, status, field] of cases) {
+      const res = await pending;
+      const body = await res.json();
+      expect([what, res.status], JSON.stringify(body)).toEqual([what, status]);
+      expect(typeof body.error, what).toBe("string");
+      if (field) expect(body.field, what).toBe(field);
+    }
+  });
+});
