@@ -63,5 +63,6 @@ export async function draftSummary(actor: Actor | null, siteSlug: string): Promi
   const authors = ((change as unknown as { authors?: (ChangeAuthor & { user?: User })[] })?.authors ?? [])
     .sort((a, b) => a.firstEditAt.getTime() - b.firstEditAt.getTime())
     .map((a) => ({ name: a.user?.name ?? "", email: a.user?.email ?? "" }));
-  return { changeId: change?.id ?? null, state: change?.state ?? "none", baseRelease: change?.baseRelease ?? null, authors, edits };
+  const baseRelease = change ? change.baseRelease : await currentReleaseNumber(site.id);
+  return { changeId: change?.id ?? null, state: change?.state ?? "none", baseRelease, authors, edits };
 }
