@@ -3,35 +3,43 @@
 import { useEffect, useRef } from "react";
 import useSWRInfinite from "swr/infinite";
 import { fetcher } from "@/lib/client/api";
-import type { TagValues } from "@/schemas/tag";
+import { joinStores, toStore, type TagRow, type TagStore } from "./tag-store";
 
-export type TagRow = TagValues & { id: number };
+export type { TagRow } from "./tag-store";
 type Page = { tags: TagRow[]; total: number; offset: number; limit: number };
+type StoredPage = { store: TagStore; total: number; offset: number };
 
 const PAGE = 10_000;
 
-/** The whole inventory of a site, loaded page by page from the route handler. */
+// Each page becomes columns as it arrives: the per-tag objects of the JSON are then garbage
+// at once, instead of living on in the SWR cache next to the columns.
+const fetchPage = async (url: string): Promise<StoredPage> => {
+  const page = await fetcher<Page>(url);
+  return { store: toStore(page.tags), total: page.total, offset: page.offset };
+};
+
+/** The whole inventory of a site as columns, loaded page by page from the route handler. */
 export function useSiteTags(site: string) {
-  const { data, error, isLoading, mutate, size, setSize } = useSWRInfinite<Page>(
-    (index, previous: Page | null) => {
-      if (previous && previous.offset + previous.tags.length >= previous.total) return null;
+  const { data, error, isLoading, mutate, size, setSize } = useSWRInfinite<StoredPage>(
+    (index, previous: StoredPage | null) => {
+      if (previous && previous.offset + previous.store.length >= previous.total) return null;
       return `/api/sites/${site}/tags?offset=${index * PAGE}&limit=${PAGE}`;
     },
-    fetcher,
+    fetchPage,
     { revalidateFirstPage: false, revalidateOnFocus: false },
   );
   const total = data?.[0]?.total ?? 0;
-  // One array per set of pages, not per render: the table rebuilds all its rows when this
-  // changes, so a new array must mean new content (a page loaded or revalidated).
-  const cache = useRef<{ pages: TagRow[][]; tags: TagRow[] }>({ pages: [], tags: [] });
-  const pages = data?.map((p) => p.tags) ?? [];
+  // One store per set of pages, not per render: the table sorts and filters again when this
+  // changes, so a new store must mean new content (a page loaded or revalidated).
+  const cache = useRef<{ pages: TagStore[]; store: TagStore }>({ pages: [], store: joinStores([]) });
+  const pages = data?.map((p) => p.store) ?? [];
   const same = pages.length === cache.current.pages.length && pages.every((p, i) => p === cache.current.pages[i]);
-  if (!same) cache.current = { pages, tags: pages.flat() };
-  const tags = cache.current.tags;
-  const complete = !!data && tags.length >= total;
+  if (!same) cache.current = { pages, store: joinStores(pages) };
+  const store = cache.current.store;
+  const complete = !!data && store.length >= total;
   // Keep asking for the next page until the whole inventory is here.
   useEffect(() => {
     if (data && !complete && size === data.length && !error) void setSize(size + 1);
   }, [data, complete, size, error, setSize]);
-  return { tags, total, complete, error, isLoading, mutate };
+  return { store, total, complete, error, isLoading, mutate };
 }
