@@ -102,7 +102,10 @@ export function measureOutput(
   let extremaKeptShare: number | null = null;
   const measurable = kept !== null || reconstruction !== null;
   if (measurable && hasUsable(reduced)) {
-    const m = measure(series, kept ?? reduced, { reconstruction: reconstruction ?? "step", gapMs });
+    // The kept samples as a series (runProfile picked them) rather than the indices: the
+    // same metrics, without measure() copying them again. Quality only if the input had it.
+    const r = kept !== null && series.q === undefined ? { t: reduced.t, v: reduced.v } : reduced;
+    const m = measure(series, r, { reconstruction: reconstruction ?? "step", gapMs });
     extremaKeptShare = m.extremaKeptShare;
     if (reconstruction !== null) {
       maxAbsError = m.maxAbsError;
