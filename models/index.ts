@@ -6,6 +6,7 @@ import { Change, ChangeAuthor } from "./change";
 import { Gateway } from "./gateway";
 import { ProfileRevision, ReductionProfile } from "./profile";
 import { Release } from "./release";
+import { SampleSet } from "./sample-set";
 import { SignInThrottle } from "./sign-in-throttle";
 import { Site } from "./site";
 import { Tag } from "./tag";
@@ -31,6 +32,7 @@ if (!globalForModels.sluiceModelsReady || !User.sequelize) {
   AssignmentTagOverride.initModel(sequelize);
   CautionAcknowledgement.initModel(sequelize);
   Release.initModel(sequelize);
+  SampleSet.initModel(sequelize);
 
   Site.hasMany(Gateway, { foreignKey: "siteId", as: "gateways" });
   Gateway.belongsTo(Site, { foreignKey: "siteId", as: "site" });
@@ -52,6 +54,7 @@ if (!globalForModels.sluiceModelsReady || !User.sequelize) {
   Assignment.hasMany(AssignmentTagOverride, { foreignKey: "assignmentId", as: "tagOverrides" });
   AssignmentTagOverride.belongsTo(Tag, { foreignKey: "tagId", as: "tag" });
   Site.hasMany(Release, { foreignKey: "siteId", as: "releases" });
+  SampleSet.belongsTo(User, { foreignKey: "createdBy", as: "author", constraints: false });
   globalForModels.sluiceModelsReady = true;
 }
 
@@ -67,6 +70,7 @@ export {
   ProfileRevision,
   ReductionProfile,
   Release,
+  SampleSet,
   SignInThrottle,
   Site,
   Tag,

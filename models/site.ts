@@ -11,6 +11,11 @@ export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<S
   declare storagePricePerGbMonth: number;
   declare retentionMonths: number;
   declare defaultHandling: CreationOptional<DefaultHandling>;
+  /** Plain byte model: bytes per sample (timestamp, value, framing). */
+  declare bytesPerSample: CreationOptional<number>;
+  declare transportOverheadPct: CreationOptional<number>;
+  /** Share of the uplink budget kept free, in percent. */
+  declare uplinkHeadroomPct: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -25,6 +30,9 @@ export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<S
         storagePricePerGbMonth: { type: DataTypes.DECIMAL(12, 4), allowNull: false },
         retentionMonths: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false },
         defaultHandling: { type: DataTypes.ENUM("pass-through", "drop", "profile"), allowNull: false, defaultValue: "pass-through" },
+        bytesPerSample: { type: DataTypes.SMALLINT.UNSIGNED, allowNull: false, defaultValue: 16 },
+        transportOverheadPct: { type: DataTypes.DECIMAL(6, 2), allowNull: false, defaultValue: 10 },
+        uplinkHeadroomPct: { type: DataTypes.DECIMAL(5, 2), allowNull: false, defaultValue: 20 },
         createdAt: DataTypes.DATE(3),
         updatedAt: DataTypes.DATE(3),
       },

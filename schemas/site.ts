@@ -36,6 +36,9 @@ export const siteSchema = z.object({
   storagePricePerGbMonth: number("Storage price").pipe(z.number().min(0, "Storage price cannot be negative.").max(1e6)),
   retentionMonths: number("Retention").pipe(z.number().int("Retention is a whole number of months.").min(1, "At least 1 month.").max(1200)),
   defaultHandling: z.enum(DEFAULT_HANDLINGS, { message: "Choose pass-through or drop." }),
+  bytesPerSample: number("Bytes per sample").pipe(z.number().int("Bytes per sample is a whole number.").min(1, "At least 1 byte.").max(256, "At most 256 bytes.")).default(16),
+  transportOverheadPct: number("Transport overhead").pipe(z.number().min(0, "Overhead cannot be negative.").max(200, "At most 200 %.")).default(10),
+  uplinkHeadroomPct: number("Uplink headroom").pipe(z.number().min(0, "Headroom cannot be negative.").max(90, "At most 90 %.")).default(20),
 });
 export type SiteInput = z.input<typeof siteSchema>;
 export type SiteValues = z.output<typeof siteSchema>;

@@ -4,7 +4,7 @@ import { NextRequest } from "next/server";
 import bcrypt from "bcryptjs";
 import type { Role } from "@/lib/permissions";
 import type { Profile } from "@/lib/reduction/profile";
-import { Assignment, Gateway, ProfileRevision, ReductionProfile, Site, Tag, TagGroup, TagGroupRule, User } from "@/models";
+import { Assignment, Gateway, ProfileRevision, ReductionProfile, SampleSet, Site, Tag, TagGroup, TagGroupRule, User } from "@/models";
 import { setSessionCookie } from "./integration/cookie-jar";
 
 const unique = () => randomUUID().slice(0, 8);
@@ -96,6 +96,33 @@ export async function createAssignment(group: TagGroup, revision: ProfileRevisio
   return Assignment.create({ groupId: group.id, profileRevisionId: revision.id, overrides: [], updatedBy: null });
 }
 
+/** A small saved sample set for a tag of the site, created directly (no audit). */
+export async function createSampleSet(site: Site, tag: Tag) {
+  const { packSeries } = await import("@/lib/samples/storage");
+  const t = Float64Array.from({ length: 50 }, (_, i) => 1_790_000_000_000 + i * 1000);
+  const v = Float64Array.from({ length: 50 }, (_, i) => Math.sin(i / 5));
+  const { encoding, data } = packSeries({ t, v });
+  const group = await createGroup(site);
+  return SampleSet.create({
+    siteId: site.id,
+    groupId: group.id,
+    name: `set ${unique()}`,
+    tagName: tag.name,
+    kind: tag.kind,
+    unit: tag.unit,
+    euLow: tag.euLow,
+    euHigh: tag.euHigh,
+    samplePeriodMs: tag.samplePeriodMs,
+    samples: 50,
+    firstAt: new Date(t[0]),
+    lastAt: new Date(t[49]),
+    encoding,
+    data,
+    byteSize: data.length,
+    createdBy: null,
+  });
+}
+
 /** A real next-auth session cookie for the user, signed with the app's secret. */
 export async function sessionCookie(user: User | null): Promise<string | null> {
   if (!user) return null;
@@ -110,14 +137,15 @@ export async function actAs(user: User | null) {
 }
 
 /** A request to a route handler, as the user (null = signed out). */
-export async function request(method: string, path: string, opts: { user?: User | null; body?: unknown; rawBody?: string; cookie?: string } = {}) {
+export async function request(method: string, path: string, opts: { user?: User | null; body?: unknown; rawBody?: string; binaryBody?: ArrayBuffer; cookie?: string } = {}) {
   const headers = new Headers();
   const c = await sessionCookie(opts.user ?? null);
   if (c ?? opts.cookie) headers.set("cookie", (c ?? opts.cookie)!);
-  let body: string | undefined;
-  if (opts.rawBody !== undefined) body = opts.rawBody;
+  let body: string | ArrayBuffer | undefined;
+  if (opts.binaryBody !== undefined) body = opts.binaryBody;
+  else if (opts.rawBody !== undefined) body = opts.rawBody;
   else if (opts.body !== undefined) body = JSON.stringify(opts.body);
-  if (body !== undefined) headers.set("content-type", "application/json");
+  if (body !== undefined) headers.set("content-type", opts.binaryBody !== undefined ? "application/octet-stream" : "application/json");
   return new NextRequest(new URL(path, "http://127.0.0.1"), { method, headers, body });
 }
 

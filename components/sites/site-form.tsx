@@ -12,7 +12,18 @@ import { siteSchema, type SiteInput, type SiteValues } from "@/schemas/site";
 
 type Props = { timeZones: string[]; existing?: SiteValues };
 
-const FIELDS = ["name", "slug", "timeZone", "uplinkBudgetKbps", "storagePricePerGbMonth", "retentionMonths", "defaultHandling"];
+const FIELDS = [
+  "name",
+  "slug",
+  "timeZone",
+  "uplinkBudgetKbps",
+  "storagePricePerGbMonth",
+  "retentionMonths",
+  "defaultHandling",
+  "bytesPerSample",
+  "transportOverheadPct",
+  "uplinkHeadroomPct",
+];
 
 /** Create a site, or edit one when `existing` is given. */
 export function SiteForm({ timeZones, existing }: Readonly<Props>) {
@@ -27,6 +38,9 @@ export function SiteForm({ timeZones, existing }: Readonly<Props>) {
       storagePricePerGbMonth: 0.023,
       retentionMonths: 24,
       defaultHandling: "pass-through",
+      bytesPerSample: 16,
+      transportOverheadPct: 10,
+      uplinkHeadroomPct: 20,
     },
   });
   const e = formState.errors;
@@ -69,6 +83,15 @@ export function SiteForm({ timeZones, existing }: Readonly<Props>) {
       </Field>
       <Field label="Retention (months)" htmlFor="site-retention" error={e.retentionMonths?.message}>
         <input id="site-retention" type="number" step="1" className={inputClass} aria-invalid={!!e.retentionMonths} {...register("retentionMonths")} />
+      </Field>
+      <Field label="Bytes per sample" htmlFor="site-bytes" error={e.bytesPerSample?.message} hint="Plain byte model for estimates: timestamp, value and framing.">
+        <input id="site-bytes" type="number" step="1" className={inputClass} aria-invalid={!!e.bytesPerSample} {...register("bytesPerSample")} />
+      </Field>
+      <Field label="Transport overhead (%)" htmlFor="site-overhead" error={e.transportOverheadPct?.message} hint="Added to the plain byte model (protocol headers, retries).">
+        <input id="site-overhead" type="number" step="any" className={inputClass} aria-invalid={!!e.transportOverheadPct} {...register("transportOverheadPct")} />
+      </Field>
+      <Field label="Uplink headroom (%)" htmlFor="site-headroom" error={e.uplinkHeadroomPct?.message} hint="Share of the uplink budget kept free for catch-up and other traffic.">
+        <input id="site-headroom" type="number" step="any" className={inputClass} aria-invalid={!!e.uplinkHeadroomPct} {...register("uplinkHeadroomPct")} />
       </Field>
       <Field label="Tags in no group" htmlFor="site-default" error={e.defaultHandling?.message} hint="What gateways do with tags no group selects.">
         <select id="site-default" className={inputClass} {...register("defaultHandling")}>

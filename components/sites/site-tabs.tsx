@@ -9,6 +9,7 @@ const TABS = [
   { path: "/groups", label: "Groups" },
   { path: "/assignments", label: "Assignments" },
   { path: "/coverage", label: "Coverage" },
+  { path: "/estimates", label: "Estimates" },
   { path: "/draft", label: "Draft change" },
 ];
 

@@ -19,6 +19,9 @@ const siteSnapshot = (s: Site) => {
     storagePricePerGbMonth: v.storagePricePerGbMonth,
     retentionMonths: v.retentionMonths,
     defaultHandling: v.defaultHandling,
+    bytesPerSample: v.bytesPerSample,
+    transportOverheadPct: v.transportOverheadPct,
+    uplinkHeadroomPct: v.uplinkHeadroomPct,
   };
 };
 

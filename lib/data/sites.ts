@@ -14,6 +14,9 @@ export type SiteView = {
   storagePricePerGbMonth: number;
   retentionMonths: number;
   defaultHandling: string;
+  bytesPerSample: number;
+  transportOverheadPct: number;
+  uplinkHeadroomPct: number;
   gatewayCount: number;
 };
 
@@ -36,6 +39,9 @@ export function presentSite(site: Site, gatewayCount = 0): SiteView {
     storagePricePerGbMonth: Number(site.storagePricePerGbMonth),
     retentionMonths: site.retentionMonths,
     defaultHandling: site.defaultHandling,
+    bytesPerSample: site.bytesPerSample,
+    transportOverheadPct: Number(site.transportOverheadPct),
+    uplinkHeadroomPct: Number(site.uplinkHeadroomPct),
     gatewayCount,
   };
 }

@@ -93,7 +93,7 @@ describe("role matrix", () => {
       for (const role of [null, ...ROLES] as (Role | null)[]) {
         const s = await sample(fx);
         const method = key.split(" ")[0];
-        const res = await handler(await request(method, s.path, { user: role ? users[role] : null, body: s.body, rawBody: s.rawBody }), ctx(s.params ?? {}));
+        const res = await handler(await request(method, s.path, { user: role ? users[role] : null, body: s.body, rawBody: s.rawBody, binaryBody: s.binaryBody }), ctx(s.params ?? {}));
         const want = expected(access, role);
         const label = `${key} as ${role ?? "signed-out"} → ${res.status}`;
         if (want === "ok") expect(res.status, label).toBeLessThan(400);

@@ -1,7 +1,8 @@
 import { randomUUID } from "node:crypto";
 import { Change, type Gateway, type Site, type Tag } from "@/models";
 import { profileToYaml } from "@/lib/profiles/yaml";
-import { createAssignment, createGateway, createGroup, createProfile, createSite, createTag, createUser, profileDocument } from "../../factories";
+import { encodeSeriesWire } from "@/lib/samples/wire";
+import { createAssignment, createGateway, createGroup, createProfile, createSampleSet, createSite, createTag, createUser, profileDocument } from "../../factories";
 
 // One valid request per route and one valid input per server action, so that an allowed
 // role gets a success and the matrix measures authorisation alone. Called once per role:
@@ -49,7 +50,7 @@ export const groupBody = () => ({
 
 export const gatewayBody = () => ({ name: `Matrix gateway ${u()}`, slug: `mgw-${u()}`, description: "", pollSeconds: 60 });
 
-type RouteSample = (fx: Fixture) => Promise<{ path: string; params?: Record<string, string>; body?: unknown; rawBody?: string }>;
+type RouteSample = (fx: Fixture) => Promise<{ path: string; params?: Record<string, string>; body?: unknown; rawBody?: string; binaryBody?: ArrayBuffer }>;
 
 export const ROUTE_SAMPLES: Record<string, RouteSample> = {
   "GET /api/health": async () => ({ path: "/api/health" }),
@@ -160,6 +161,20 @@ export const ROUTE_SAMPLES: Record<string, RouteSample> = {
     await createAssignment(g, (await createProfile()).revision);
     return { path: "/", params: { site: fx.site.slug, groupId: String(g.id) } };
   },
+  "GET /api/sites/[site]/groups/[groupId]/samples": async (fx) => {
+    const g = await createGroup(fx.site);
+    return { path: "/", params: { site: fx.site.slug, groupId: String(g.id) } };
+  },
+  "POST /api/sites/[site]/groups/[groupId]/samples": async (fx) => {
+    const g = await createGroup(fx.site);
+    const path = `/api/sites/${fx.site.slug}/groups/${g.id}/samples?name=m&tag=${encodeURIComponent(fx.tag.name)}`;
+    return { path, params: { site: fx.site.slug, groupId: String(g.id) }, binaryBody: encodeSeriesWire({ t: Float64Array.of(1, 2, 3), v: Float64Array.of(1, 2, 1) }) };
+  },
+  "GET /api/sample-sets/[sampleSetId]": async (fx) => ({ path: "/", params: { sampleSetId: String((await createSampleSet(fx.site, fx.tag)).id) } }),
+  "DELETE /api/sample-sets/[sampleSetId]": async (fx) => ({ path: "/", params: { sampleSetId: String((await createSampleSet(fx.site, fx.tag)).id) } }),
+  "GET /api/sample-sets/[sampleSetId]/data": async (fx) => ({ path: "/", params: { sampleSetId: String((await createSampleSet(fx.site, fx.tag)).id) } }),
+  "GET /api/sites/[site]/estimate": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
+  "GET /api/estimates": async () => ({ path: "/api/estimates" }),
   "GET /api/profiles": async () => ({ path: "/api/profiles?status=all" }),
   "POST /api/profiles": async () => ({ path: "/api/profiles", body: { document: profileDocument(), note: "matrix" } }),
   "POST /api/profiles/import": async () => ({ path: "/api/profiles/import", rawBody: profileToYaml(profileDocument()) }),

@@ -22,6 +22,9 @@ export default async function SiteSettingsPage({ params }: Readonly<Props>) {
     storagePricePerGbMonth: site.storagePricePerGbMonth,
     retentionMonths: site.retentionMonths,
     defaultHandling: site.defaultHandling === "drop" ? "drop" : "pass-through",
+    bytesPerSample: site.bytesPerSample,
+    transportOverheadPct: site.transportOverheadPct,
+    uplinkHeadroomPct: site.uplinkHeadroomPct,
   };
   return (
     <>
