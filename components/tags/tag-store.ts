@@ -158,12 +158,7 @@ const lowerNames = new WeakMap<TagStore, string[]>();
 function sortKey(s: TagStore, column: string): Float64Array {
   if (column === "name") {
     let rank = nameRanks.get(s);
-    if (!rank) {
-      rank = new Float64Array(s.length);
-      const key = valueRanks(s.name);
-      for (let i = 0; i < s.length; i++) rank[i] = key[i];
-      nameRanks.set(s, rank);
-    }
+    if (!rank) nameRanks.set(s, (rank = Float64Array.from(valueRanks(s.name))));
     return rank;
   }
   if (column === "samplePeriodMs") return s.samplePeriodMs;
