@@ -1,5 +1,8 @@
 import { z } from "zod";
 
+// An empty variable (SMTP_URL= in a unit file) counts as unset.
+const blankIsUnset = <T extends z.ZodType>(inner: T) => z.preprocess((v) => (v === "" ? undefined : v), inner);
+
 // The app's configuration, validated once. Nothing else reads process.env.
 const schema = z.object({
   DATABASE_URL: z
@@ -10,6 +13,19 @@ const schema = z.object({
   NEXTAUTH_URL: z.string().url().optional(),
   SLUICE_DATA_DIR: z.string().default(".data"),
   SLUICE_SQL_LOG: z.enum(["0", "1"]).default("0"),
+  /** Outgoing mail server, smtp://[user:pass@]host:port or smtps://…; unset = no mail is sent. */
+  SMTP_URL: blankIsUnset(
+    z
+      .string()
+      .url()
+      .refine((v) => /^smtps?:\/\//.test(v), "SMTP_URL must be an smtp:// or smtps:// URL")
+      .optional(),
+  ),
+  MAIL_FROM: blankIsUnset(z.string().min(3).default("Sluice <sluice@localhost>")),
+  /** Where the local SMTP catcher keeps messages; the Mail admin page lists them. */
+  SLUICE_MAIL_DIR: blankIsUnset(z.string().optional()),
+  /** The console's address in links sent by mail; falls back to NEXTAUTH_URL. */
+  PUBLIC_URL: blankIsUnset(z.string().url().optional()),
   NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
 });
 

@@ -308,6 +308,30 @@ async function waitForHttp(url, child, ms = 90_000) {
   throw new Error(`${url} did not answer within ${ms / 1000} s`);
 }
 
+/**
+ * Starts scripts/smtp-catcher.mjs on a free loopback port (preferring `port`), keeping
+ * messages under <dataDir>/mail, and resolves with the SMTP_URL and SLUICE_MAIL_DIR the
+ * app needs. Stopped with the other children; it also stops when this script's end of
+ * its stdin closes. Its output is inherited, never piped: this script blocks in spawnSync
+ * while tests run, and a full pipe would stall the catcher.
+ */
+async function startMailCatcher(dataDir, preferredPort, { quiet = false } = {}) {
+  const mailDir = path.join(dataDir, "mail");
+  const port = await freePort(preferredPort);
+  const args = [path.join(root, "scripts", "smtp-catcher.mjs"), "--dir", mailDir, "--port", String(port), "--exit-with-stdin"];
+  if (quiet) args.push("--quiet");
+  const child = spawn(process.execPath, args, { cwd: root, stdio: ["pipe", "inherit", "inherit"] });
+  children.add(child);
+  child.once("exit", () => children.delete(child));
+  const deadline = Date.now() + 15_000;
+  while (!(await portAnswers(port))) {
+    if (child.exitCode !== null) throw new Error(`the SMTP catcher exited (${child.exitCode}) while starting`);
+    if (Date.now() > deadline) throw new Error(`the SMTP catcher did not answer on port ${port} within 15 s`);
+    await sleep(100);
+  }
+  return { SMTP_URL: `smtp://127.0.0.1:${port}`, SLUICE_MAIL_DIR: mailDir };
+}
+
 let cleanupPromise = null;
 
 /** Stops what this script started; every caller waits for the same, single clean-up. */
@@ -363,6 +387,11 @@ async function serve(dev) {
   } else {
     log("DATABASE_URL is set: using that database, not starting MariaDB");
   }
+  if (!process.env.SMTP_URL) {
+    Object.assign(env, await startMailCatcher(dataDir, Number(process.env.SLUICE_SMTP_PORT ?? 2525)));
+  } else {
+    log("SMTP_URL is set: mail goes to that server, not starting the mail catcher");
+  }
   migrateAndSeed(env);
   let child;
   if (dev) {
@@ -375,6 +404,7 @@ async function serve(dev) {
   log(`Sluice is serving at ${env.NEXTAUTH_URL}`);
   log("demo sign-ins (demo data only):");
   for (const [role, email, pw] of DEMO_SIGN_INS) log(`  ${role.padEnd(9)} ${email}  ${pw}`);
+  if (env.SLUICE_MAIL_DIR && !process.env.SMTP_URL) log(`outgoing mail is caught on ${env.SMTP_URL}; read it under Mail (admin)`);
   log("press Ctrl-C to stop the app and MariaDB");
   const code = await new Promise((r) => child.once("exit", r));
   await cleanup();
@@ -424,6 +454,8 @@ async function test() {
     env.DATABASE_URL = dbUrl(port, "sluice_test", secrets.dbPassword);
     env.MIGRATIONS_TEST_DATABASE_URL = dbUrl(port, "sluice_migrations", secrets.dbPassword);
     migrateAndSeed(env);
+    // Mail always goes to a throwaway catcher in tests, never to a configured server.
+    Object.assign(env, await startMailCatcher(tmpData, 0, { quiet: true }));
   }
   if (want.includes("integration")) {
     log("integration tests (real MariaDB)");

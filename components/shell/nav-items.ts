@@ -9,6 +9,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/profiles", label: "Profiles", needs: "read" },
   { href: "/audit", label: "Audit log", needs: "read" },
   { href: "/admin/users", label: "Users", needs: "fleet.admin" },
+  { href: "/admin/mail", label: "Mail", needs: "fleet.admin" },
 ];
 
 export function navFor(role: Role): NavItem[] {
