@@ -1,0 +1,26 @@
+import { PageHeader } from "@/components/shell/page-header";
+import { Workbench } from "@/components/preview/workbench";
+import { currentActor } from "@/lib/auth/guard";
+import { listProfiles } from "@/lib/data/profiles";
+import { listSites } from "@/lib/data/sites";
+
+export const metadata = { title: "Workbench" };
+
+// The workbench: try a profile revision on sample data in the browser (nothing is saved).
+export default async function WorkbenchPage() {
+  const actor = await currentActor();
+  const [profiles, sites] = await Promise.all([listProfiles(actor, { status: "active" }), listSites(actor)]);
+  return (
+    <>
+      <PageHeader
+        title="Workbench"
+        crumbs={[{ href: "/", label: "Overview" }, { label: "Workbench" }]}
+        lead="Try a reduction profile on sample data before assigning it: see what the cloud would receive, the error and the bytes, and tune a parameter. The work runs in your browser; nothing here is saved."
+      />
+      <Workbench
+        profiles={profiles.map((p) => ({ id: p.id, name: p.name, kinds: p.kinds, latestRevision: p.latestRevision }))}
+        sites={sites.map((s) => ({ slug: s.slug, name: s.name, timeZone: s.timeZone }))}
+      />
+    </>
+  );
+}
