@@ -174,7 +174,7 @@ async function main() {
   }
   const ref = await browser.newPage({ viewport: { width: 1400, height: 900 } });
   const t1 = Date.now();
-  await ref.setContent(`<div id="s" style="height:65vh;overflow:auto"><table>${rows.join("")}</table></div>`);
+  await ref.setContent(`<div id="s" style="height:65vh;overflow:auto"><table>${rows.join("")}</table></div>`, { timeout: 180_000 });
   const refLoad = (Date.now() - t1) / 1000;
   await ref.waitForTimeout(500);
 
