@@ -84,20 +84,33 @@ async function fileToChart(page: Page, cdp: CDPSession, file: string): Promise<F
   return { ms: (await handle.jsonValue()) as number, wall, cpu: await cpuSince(cdp, cpu0), load: loadavg()[0] };
 }
 
-async function sweep(page: Page, cdp: CDPSession): Promise<Figure> {
+/** Clicks "Run sweep" in the page and resolves with the ms until the status says the sweep finished. */
+const SWEEP_SCRIPT = `new Promise((resolve) => {
+  const status = document.querySelector('[data-testid="tuning-status"]');
+  status.textContent = "";
+  const button = [...document.querySelectorAll("button")].find((b) => b.textContent === "Run sweep");
+  let t0 = 0;
+  const obs = new MutationObserver(() => {
+    if (!status.textContent.includes("Sweep finished")) return;
+    obs.disconnect();
+    resolve({ ms: performance.now() - t0, text: status.textContent });
+  });
+  obs.observe(status, { childList: true, characterData: true, subtree: true });
+  t0 = performance.now();
+  button.click();
+})`;
+
+async function sweep(page: Page, cdp: CDPSession): Promise<Figure & { worker: number }> {
   await page.getByLabel("Sweep from").fill("0.05");
   await page.getByLabel("Sweep to").fill("1");
   await page.getByLabel("Points", { exact: true }).fill("20");
-  const status = page.getByTestId("tuning-status");
   const cpu0 = await rendererCpu(cdp);
   const t0 = Date.now();
-  await page.getByRole("button", { name: "Run sweep" }).click();
-  await status.filter({ hasText: "Sweep finished" }).waitFor({ timeout: 120_000 });
+  const r = (await page.evaluate(SWEEP_SCRIPT)) as { ms: number; text: string };
   const wall = Date.now() - t0;
   const cpu = await cpuSince(cdp, cpu0);
-  const seconds = Number(/in ([\d.]+) s/.exec((await status.textContent()) ?? "")?.[1]);
-  await page.evaluate(`document.querySelector('[data-testid="tuning-status"]').textContent = ""`);
-  return { ms: seconds * 1000, wall, cpu, load: loadavg()[0] };
+  const worker = 1000 * Number(/in ([\d.]+) s/.exec(r.text)?.[1]);
+  return { ms: r.ms, wall, cpu, worker, load: loadavg()[0] };
 }
 
 /** A drag across the middle fifth of the chart: ms from mouse-up to the redraw with the new range's data. */
@@ -144,18 +157,18 @@ async function main() {
   }
   const zoomMs = await zoom(page);
   console.log(`drag-zoom → redraw with the range's data: ${zoomMs.toFixed(0)} ms`);
-  const sweeps: Figure[] = [];
+  const sweeps: (Figure & { worker: number })[] = [];
   for (let r = 1; r <= ROUNDS; r++) {
     const s = await sweep(page, cdp);
     sweeps.push(s);
     console.log(
-      `round ${r}: 20-point sweep ${s.ms.toFixed(0)} ms in the workers (${s.wall} ms click → status; renderer CPU ${s.cpu.toFixed(0)} ms), load average ${s.load.toFixed(2)}`,
+      `round ${r}: 20-point sweep ${s.ms.toFixed(0)} ms from click to result in the page (${s.worker.toFixed(0)} ms in the workers; renderer CPU ${s.cpu.toFixed(0)} ms), load average ${s.load.toFixed(2)}`,
     );
   }
   await browser.close();
 
   const chartMs = median(charts.map((c) => c.ms));
-  const sweepMs = median(sweeps.map((s) => s.wall));
+  const sweepMs = median(sweeps.map((s) => s.ms));
   console.log(`\nWorkbench, ${rowsText} samples, headless Chromium, ${cpus().length} cores, 1-min load average now ${loadavg()[0].toFixed(2)}`);
   console.log(`file chosen → chart drawn, median of ${ROUNDS}: ${chartMs.toFixed(0)} ms → target ≤ 3,000 ms ${chartMs <= 3000 ? "met" : "NOT met"}`);
   console.log(`20-point sweep (click → result shown), median of ${ROUNDS}: ${sweepMs.toFixed(0)} ms → target ≤ 2,000 ms ${sweepMs <= 2000 ? "met" : "NOT met"}`);
