@@ -8,6 +8,7 @@ export const NAV_ITEMS: NavItem[] = [
   { href: "/sites", label: "Sites", needs: "read" },
   { href: "/profiles", label: "Profiles", needs: "read" },
   { href: "/workbench", label: "Workbench", needs: "read" },
+  { href: "/estimates", label: "Uplink and storage", needs: "read" },
   { href: "/audit", label: "Audit log", needs: "read" },
   { href: "/admin/users", label: "Users", needs: "fleet.admin" },
   { href: "/admin/mail", label: "Mail", needs: "fleet.admin" },
