@@ -1,13 +1,21 @@
 import Link from "next/link";
+import { SubmitChangeForm } from "@/components/review/submit-change-form";
+import { currentActor } from "@/lib/auth/guard";
 import { describeEdit } from "@/lib/config/site-config";
 import type { DraftSummary } from "@/lib/data/drafts";
+import { can } from "@/lib/permissions";
 import { DiscardButton } from "./discard-buttons";
+
+const UNDER_REVIEW: Record<string, string> = { in_review: "is in review", approved: "is approved and waiting to be released", rejected: "was rejected" };
 
 type Props = { site: string; draft: DraftSummary; canEdit: boolean; linkToPage?: boolean };
 
-/** The site's draft change: how many edits, by whom, each with a discard control for editors. */
-export function DraftPanel({ site, draft, canEdit, linkToPage = false }: Readonly<Props>) {
+/** The site's draft change: how many edits, by whom, each with a discard control for editors, and submission for review. */
+export async function DraftPanel({ site, draft, canEdit, linkToPage = false }: Readonly<Props>) {
   const n = draft.edits.length;
+  const actor = await currentActor();
+  const canSubmit = !linkToPage && n > 0 && !!actor && can(actor.role, "change.submit") && (draft.state === "draft" || draft.state === "rejected");
+  const status = draft.changeId !== null ? UNDER_REVIEW[draft.state] : undefined;
   return (
     <section id="draft" aria-labelledby="draft-heading" className="rounded-panel border border-panel-line bg-panel p-4">
       <div className="flex flex-wrap items-center justify-between gap-2">
@@ -21,6 +29,14 @@ export function DraftPanel({ site, draft, canEdit, linkToPage = false }: Readonl
         ) : null}
         {!linkToPage && canEdit && n > 0 ? <DiscardButton site={site} /> : null}
       </div>
+      {status ? (
+        <p className="mt-2 text-label" data-testid="draft-review-status">
+          <Link href={`/sites/${site}/changes/${draft.changeId}`} className="font-medium text-weir-700 hover:underline">
+            Change {draft.changeId} {status}
+          </Link>
+          {draft.state === "rejected" ? " — see the reviewer's comment, then edit and submit again." : " — open its review page."}
+        </p>
+      ) : null}
       {n === 0 ? (
         <p className="mt-1 text-label text-ink-soft">No edits since {draft.baseRelease ? `release ${draft.baseRelease}` : "the start"}.</p>
       ) : (
@@ -37,6 +53,7 @@ export function DraftPanel({ site, draft, canEdit, linkToPage = false }: Readonl
               </li>
             ))}
           </ul>
+          {canSubmit ? <SubmitChangeForm site={site} /> : null}
         </>
       )}
     </section>

@@ -11,6 +11,7 @@ const TABS = [
   { path: "/coverage", label: "Coverage" },
   { path: "/estimates", label: "Estimates" },
   { path: "/draft", label: "Draft change" },
+  { path: "/releases", label: "Releases" },
 ];
 
 /** The sections of one site. */
