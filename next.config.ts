@@ -1,7 +1,7 @@
 import type { NextConfig } from "next";
 
 const nextConfig: NextConfig = {
-  serverExternalPackages: ["sequelize", "mariadb"],
+  serverExternalPackages: ["sequelize", "mariadb", "nodemailer", "mailparser"],
   poweredByHeader: false,
   reactStrictMode: true,
 };

@@ -12,6 +12,10 @@ const schema = z.object({
   NEXTAUTH_SECRET: z.string().min(16).optional(),
   NEXTAUTH_URL: z.string().url().optional(),
   SLUICE_DATA_DIR: z.string().default(".data"),
+  /** The registry's signing keys as JSON (several app instances must share them); see lib/bundles/README.md. */
+  SLUICE_SIGNING_KEYS: z.string().optional(),
+  /** Or a mounted file holding that JSON. Without either, one machine generates keys under SLUICE_DATA_DIR. */
+  SLUICE_SIGNING_KEYS_FILE: z.string().optional(),
   SLUICE_SQL_LOG: z.enum(["0", "1"]).default("0"),
   /** Outgoing mail server, smtp://[user:pass@]host:port or smtps://…; unset = no mail is sent. */
   SMTP_URL: blankIsUnset(

@@ -60,6 +60,8 @@ export class CautionAcknowledgement extends Model<InferAttributes<CautionAcknowl
   declare userId: number | null;
   declare userEmail: string;
   declare acknowledgedAt: Date;
+  /** Set when a reviewer acknowledged at approval (null: the engineer at assignment). */
+  declare changeId: CreationOptional<number | null>;
 
   static initModel(sequelize: Sequelize) {
     CautionAcknowledgement.init(
@@ -74,6 +76,7 @@ export class CautionAcknowledgement extends Model<InferAttributes<CautionAcknowl
         userId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
         userEmail: { type: DataTypes.STRING(191), allowNull: false },
         acknowledgedAt: { type: DataTypes.DATE(3), allowNull: false },
+        changeId: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
       },
       { sequelize, tableName: "caution_acknowledgements", underscored: true, timestamps: false },
     );

@@ -2,7 +2,8 @@ import "server-only";
 import { sequelize } from "@/lib/db";
 import { Assignment, AssignmentTagOverride, CautionAcknowledgement } from "./assignment";
 import { AuditEvent } from "./audit-event";
-import { Change, ChangeAuthor } from "./change";
+import { Bundle } from "./bundle";
+import { Change, ChangeAuthor, type ChangeReview } from "./change";
 import { Gateway } from "./gateway";
 import { ProfileRevision, ReductionProfile } from "./profile";
 import { Release } from "./release";
@@ -33,6 +34,7 @@ if (!globalForModels.sluiceModelsReady || !User.sequelize) {
   CautionAcknowledgement.initModel(sequelize);
   Release.initModel(sequelize);
   SampleSet.initModel(sequelize);
+  Bundle.initModel(sequelize);
 
   Site.hasMany(Gateway, { foreignKey: "siteId", as: "gateways" });
   Gateway.belongsTo(Site, { foreignKey: "siteId", as: "site" });
@@ -54,15 +56,19 @@ if (!globalForModels.sluiceModelsReady || !User.sequelize) {
   Assignment.hasMany(AssignmentTagOverride, { foreignKey: "assignmentId", as: "tagOverrides" });
   AssignmentTagOverride.belongsTo(Tag, { foreignKey: "tagId", as: "tag" });
   Site.hasMany(Release, { foreignKey: "siteId", as: "releases" });
+  Release.hasMany(Bundle, { foreignKey: "releaseId", as: "bundles" });
+  Release.belongsTo(User, { foreignKey: "releasedBy", as: "releaser", constraints: false });
   SampleSet.belongsTo(User, { foreignKey: "createdBy", as: "author", constraints: false });
   globalForModels.sluiceModelsReady = true;
 }
 
+export type { ChangeReview };
 export {
   sequelize,
   Assignment,
   AssignmentTagOverride,
   AuditEvent,
+  Bundle,
   CautionAcknowledgement,
   Change,
   ChangeAuthor,

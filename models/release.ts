@@ -11,6 +11,8 @@ export class Release extends Model<InferAttributes<Release>, InferCreationAttrib
   declare note: CreationOptional<string>;
   declare releasedBy: number | null;
   declare releasedAt: Date;
+  declare rollbackOf: CreationOptional<number | null>;
+  declare urgentReason: CreationOptional<string | null>;
 
   static initModel(sequelize: Sequelize) {
     Release.init(
@@ -23,6 +25,8 @@ export class Release extends Model<InferAttributes<Release>, InferCreationAttrib
         note: { type: DataTypes.STRING(500), allowNull: false, defaultValue: "" },
         releasedBy: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
         releasedAt: { type: DataTypes.DATE(3), allowNull: false },
+        rollbackOf: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
+        urgentReason: { type: DataTypes.STRING(2000), allowNull: true },
       },
       { sequelize, tableName: "releases", underscored: true, timestamps: false },
     );

@@ -16,6 +16,8 @@ export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<S
   declare transportOverheadPct: CreationOptional<number>;
   /** Share of the uplink budget kept free, in percent. */
   declare uplinkHeadroomPct: CreationOptional<number>;
+  /** The number of the site's latest release (0 before the first). */
+  declare releaseCounter: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -33,6 +35,7 @@ export class Site extends Model<InferAttributes<Site>, InferCreationAttributes<S
         bytesPerSample: { type: DataTypes.SMALLINT.UNSIGNED, allowNull: false, defaultValue: 16 },
         transportOverheadPct: { type: DataTypes.DECIMAL(6, 2), allowNull: false, defaultValue: 10 },
         uplinkHeadroomPct: { type: DataTypes.DECIMAL(5, 2), allowNull: false, defaultValue: 20 },
+        releaseCounter: { type: DataTypes.INTEGER.UNSIGNED, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE(3),
         updatedAt: DataTypes.DATE(3),
       },

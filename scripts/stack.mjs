@@ -285,6 +285,8 @@ function migrateAndSeed(env, { seed = true } = {}) {
   if (seed) {
     log("seeding demo data");
     runOrDie(bin("sequelize-cli"), ["db:seed:all"], { env });
+    // Seeders are plain JS; the seeded release's bundles are rendered and signed by the TypeScript library.
+    runOrDie(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/seed-bundles.ts"], { env });
   }
 }
 
@@ -494,6 +496,9 @@ async function bench() {
   if (!only || only === "reduction") {
     log("reduction benchmarks");
     code ||= run(bin("tsx"), ["bench/index.ts"]);
+    log("preview, sweep and bundle benchmarks");
+    code ||= run(bin("tsx"), ["bench/preview.ts"]);
+    code ||= run(bin("tsx"), ["bench/bundles.ts"]);
   }
   if (!only || only === "ui") {
     ensureChromium();
@@ -517,6 +522,7 @@ async function bench() {
     await waitForHttp(`http://127.0.0.1:${appPort}/sign-in`, child);
     log("browser benchmarks");
     code ||= run(bin("tsx"), ["bench/tag-table-scroll.ts"], { env: { ...env, SLUICE_E2E_URL: `http://127.0.0.1:${appPort}` } });
+    code ||= run(bin("tsx"), ["bench/workbench.ts"], { env: { ...env, SLUICE_E2E_URL: `http://127.0.0.1:${appPort}` } });
   }
   await cleanup();
   process.exit(code);

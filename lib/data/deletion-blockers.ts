@@ -1,6 +1,6 @@
 import "server-only";
 import type { Transaction } from "sequelize";
-import { Tag } from "@/models";
+import { Bundle, Release, Tag } from "@/models";
 
 type Target = { siteId: number } | { gatewayId: number };
 type Check = (target: Target, transaction: Transaction) => Promise<string | null>;
@@ -15,6 +15,14 @@ const CHECKS: Check[] = [
     if (!("gatewayId" in target)) return null;
     const n = await Tag.count({ where: { gatewayId: target.gatewayId }, transaction });
     return n ? `${n.toLocaleString("en")} tag${n === 1 ? " is" : "s are"} collected by it; move them to another gateway or delete them first` : null;
+  },
+  async (target, transaction) => {
+    if ("gatewayId" in target) {
+      const n = await Bundle.count({ where: { gatewayId: target.gatewayId }, transaction });
+      return n ? `it has bundles in ${n.toLocaleString("en")} release${n === 1 ? "" : "s"}; released history is kept` : null;
+    }
+    const n = await Release.count({ where: { siteId: target.siteId }, transaction });
+    return n ? `it has ${n.toLocaleString("en")} release${n === 1 ? "" : "s"}; released history is kept` : null;
   },
 ];
 

@@ -3,7 +3,7 @@ import type { Transaction } from "sequelize";
 import { z } from "zod";
 import { recordAudit } from "@/lib/audit";
 import type { Actor } from "@/lib/auth/guard";
-import { describeEdit, diffConfigs, type AssignmentConfig, type DraftEdit, type GroupConfig } from "@/lib/config/site-config";
+import { describeEdit, diffConfigs, type AssignmentConfig, type DraftEdit, type GroupConfig, type SiteConfig } from "@/lib/config/site-config";
 import { HttpError } from "@/lib/http";
 import { Assignment, Change, ProfileRevision, Site, Tag, TagGroup, sequelize } from "@/models";
 import { assertCan } from "./access";
@@ -69,6 +69,18 @@ async function groupByName(site: Site, name: string, transaction: Transaction): 
   const g = await TagGroup.findOne({ where: { siteId: site.id, name }, transaction, lock: transaction.LOCK.UPDATE });
   if (!g) throw new HttpError(409, `group "${name}" changed meanwhile; reload`, "edits");
   return g;
+}
+
+/**
+ * Makes the site's working configuration equal to `target` (a release's snapshot):
+ * every edit between them is undone, then the target's priorities restored. Used by
+ * rollbacks; runs inside the caller's transaction.
+ */
+export async function restoreConfig(site: Site, target: SiteConfig, actor: Actor, transaction: Transaction): Promise<void> {
+  const edits = diffConfigs(target, await loadWorkingConfig(site.id, transaction)).sort((a, b) => ORDER.indexOf(a.kind) - ORDER.indexOf(b.kind));
+  const groups = new Map(target.groups.map((g) => [g.name, g]));
+  for (const edit of edits) await undo(edit, site, groups, actor, transaction);
+  await undo({ key: "groups-reordered", kind: "groups-reordered", from: [], to: [] }, site, groups, actor, transaction);
 }
 
 async function undo(edit: DraftEdit, site: Site, base: Map<string, GroupConfig>, actor: Actor, transaction: Transaction): Promise<void> {

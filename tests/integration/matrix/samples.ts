@@ -175,6 +175,44 @@ export const ROUTE_SAMPLES: Record<string, RouteSample> = {
   "GET /api/sample-sets/[sampleSetId]/data": async (fx) => ({ path: "/", params: { sampleSetId: String((await createSampleSet(fx.site, fx.tag)).id) } }),
   "GET /api/sites/[site]/estimate": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
   "GET /api/estimates": async () => ({ path: "/api/estimates" }),
+  "GET /api/sites/[site]/changes": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
+  "POST /api/sites/[site]/changes": async () => {
+    const { site } = await draftSite();
+    return { path: "/", params: { site: site.slug }, body: { note: "matrix" } };
+  },
+  "GET /api/sites/[site]/changes/[changeId]": async () => {
+    const { site, change } = await draftSite();
+    return { path: "/", params: { site: site.slug, changeId: String(change.id) } };
+  },
+  "POST /api/sites/[site]/changes/[changeId]/approve": async () => {
+    const { site, change } = await draftSite("in_review");
+    return { path: "/", params: { site: site.slug, changeId: String(change.id) }, body: {} };
+  },
+  "POST /api/sites/[site]/changes/[changeId]/reject": async () => {
+    const { site, change } = await draftSite("in_review");
+    return { path: "/", params: { site: site.slug, changeId: String(change.id) }, body: { comment: "no" } };
+  },
+  "POST /api/sites/[site]/changes/[changeId]/release": async () => {
+    const { site, change } = await draftSite("approved");
+    return { path: "/", params: { site: site.slug, changeId: String(change.id) } };
+  },
+  "GET /api/sites/[site]/releases": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
+  "GET /api/sites/[site]/releases/compare": async () => {
+    const { site } = await releasedSite(2);
+    return { path: "/x?from=1&to=2", params: { site: site.slug } };
+  },
+  "GET /api/sites/[site]/releases/[number]/bundles/[gateway]": async () => {
+    const { site, gateway } = await releasedSite(1);
+    return { path: "/", params: { site: site.slug, number: "1", gateway: gateway.slug } };
+  },
+  "POST /api/sites/[site]/rollbacks": async () => {
+    const { site } = await releasedSite(2, true);
+    return { path: "/", params: { site: site.slug }, body: { release: 1 } };
+  },
+  "POST /api/sites/[site]/rollbacks/urgent": async () => {
+    const { site } = await releasedSite(2, true);
+    return { path: "/", params: { site: site.slug }, body: { release: 1, reason: "matrix urgent path" } };
+  },
   "GET /api/profiles": async () => ({ path: "/api/profiles?status=all" }),
   "POST /api/profiles": async () => ({ path: "/api/profiles", body: { document: profileDocument(), note: "matrix" } }),
   "POST /api/profiles/import": async () => ({ path: "/api/profiles/import", rawBody: profileToYaml(profileDocument()) }),
@@ -189,6 +227,38 @@ export const ROUTE_SAMPLES: Record<string, RouteSample> = {
   "POST /api/profiles/[profileId]/duplicate": async () => ({ path: "/", params: { profileId: String((await createProfile()).profile.id) }, body: { name: `Copy ${u()}` } }),
   "GET /api/profiles/[profileId]/export": async () => ({ path: "/", params: { profileId: String((await createProfile()).profile.id) } }),
 };
+
+/** A site with a tag, a group assigned a profile, and its open change in the given state (config and review snapshot when past draft). */
+async function draftSite(state: "draft" | "in_review" | "approved" = "draft") {
+  const site = await createSite();
+  const gateway = await createGateway(site);
+  await createTag(site, gateway, { name: "AREA/TT-1/PV" });
+  const group = await createGroup(site);
+  await createAssignment(group, (await createProfile()).revision);
+  const { loadWorkingConfig } = await import("@/lib/data/groups");
+  const config = await loadWorkingConfig(site.id);
+  const change = await Change.create({ siteId: site.id, baseRelease: null, createdBy: null });
+  if (state !== "draft") {
+    const review = { release: 1, issued: "", gateways: [], summary: [], regulatedTouched: [], gatewaysAffected: [], impact: null };
+    await change.update({ state, config, review });
+  }
+  return { site, gateway, change };
+}
+
+/** A site with `n` releases published through the data layer; with `differ`, release 1 holds no groups so later ones differ. */
+async function releasedSite(n: number, differ = false) {
+  const { site, gateway, change } = await draftSite();
+  await change.destroy();
+  const { publishRelease } = await import("@/lib/data/releases");
+  const { loadWorkingConfig } = await import("@/lib/data/groups");
+  const { sequelize } = await import("@/models");
+  const config = await loadWorkingConfig(site.id);
+  const admin = await createUser({ role: "admin" });
+  const actor = { id: admin.id, email: admin.email, name: admin.name, role: "admin" as const };
+  for (let i = 1; i <= n; i++) await sequelize.transaction((t) => publishRelease(site, differ && i === 1 ? { groups: [] } : config, { changeId: null, actor }, t));
+  await site.reload();
+  return { site, gateway };
+}
 
 export const ACTION_SAMPLES: Record<string, (fx: Fixture) => Promise<unknown>> = {
   "(console)/admin/users/actions.ts#createUserAction": async () => ({ email: `a-${u()}@test.invalid`, name: "Action", role: "engineer" }),
