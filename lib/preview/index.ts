@@ -15,4 +15,4 @@ export {
   type OutputMetrics,
   type OutputPreview,
 } from "./run";
-export { gridValues, sweepParameter, bestPoint, findSetting, type SweepTarget, type SweepPoint, type SettingGoal } from "./sweep";
+export { gridValues, sweepParameter, createSweep, bestPoint, findSetting, type SweepTarget, type SweepPoint, type SettingGoal } from "./sweep";

@@ -7,12 +7,16 @@ import {
   type ProfileTag,
   type RunContext,
   type Series,
+  QUALITY_BAD,
   gapThreshold,
   resolveSteps,
-  runProfile,
+  validateSeries,
 } from "@/lib/reduction";
 import { applyOverrides } from "@/lib/reduction/profile-resolve";
-import { measureGapMs, measureOutput, reconstructionOf } from "./run";
+import { type StepsState, pick, profileStepEnv, runSteps, startSteps } from "@/lib/reduction/profile-run";
+import { stepCall } from "@/lib/reduction/profile-steps";
+import { measureGapMs, reconstructionOf } from "./run";
+import { SweepMeasure } from "./sweep-measure";
 
 /** The parameter a sweep varies: step `step` (0-based) of output `output`. */
 export type SweepTarget = { output: string; step: number; parameter: string };
@@ -45,8 +49,26 @@ export function gridValues(from: number, to: number, points: number, scale: "lin
  * magnitude parameter keeps its form: the value replaces the number of `{ value, unit }`
  * or `{ percent }` (an absent one is taken in the tag's unit); an integer parameter is
  * rounded. The other outputs are not run; ctx.overrides of this output apply first.
+ * Runs as {@link createSweep}, once.
  */
 export function sweepParameter(series: Series, profile: Profile, tag: ProfileTag, target: SweepTarget, values: number[], ctx: RunContext): SweepPoint[] {
+  return createSweep(series, profile, tag, target, ctx)(values);
+}
+
+/**
+ * {@link sweepParameter} as a function of the values, for evaluating one sweep's values
+ * a few at a time (e.g. {@link findSetting}): checks the target now, and gives the same
+ * points as sweepParameter (tests/unit/preview/sweep-fast.test.ts holds it to
+ * previewProfile value by value) in less time:
+ * - the steps before the swept one do not depend on the value, so they run once (at the
+ *   first value) and every value runs only the swept step and those after it;
+ * - a selection step that keeps every sample passes its input on without a copy;
+ * - only ratio, max error and RMSE are measured (no extrema), the input validated and its
+ *   usable samples and gaps counted once, with buffers kept from one value to the next;
+ * - the last step's kept samples are measured where they are, not copied.
+ * The input must not change while the function is in use.
+ */
+export function createSweep(series: Series, profile: Profile, tag: ProfileTag, target: SweepTarget, ctx: RunContext): (values: number[]) => SweepPoint[] {
   const output = profile.outputs.find((o) => o.name === target.output);
   if (output === undefined) throw new ProfileError(`the profile has no output "${target.output}"`);
   const overrides = (ctx.overrides ?? []).filter((o) => o.output === target.output);
@@ -66,14 +88,47 @@ export function sweepParameter(series: Series, profile: Profile, tag: ProfileTag
     return { value: x, unit: typeof current === "object" ? current.unit : tag.unit };
   };
   const gapMs = measureGapMs(series, gapThreshold(tag.samplePeriodMs, ctx.gapFactor ?? DEFAULT_GAP_FACTOR));
+  const env = profileStepEnv(tag, ctx);
   let reconstruction: "linear" | "step" | null | undefined;
-  return values.map((value) => {
+  let before: StepsState | undefined;
+  let measure: SweepMeasure | undefined;
+  const evaluate = (value: number): SweepPoint => {
     const c: RunContext = { ...ctx, overrides: [...overrides, { ...target, value: form(value) }] };
-    reconstruction ??= reconstructionOf(resolveSteps(single, tag, c).outputs[0].steps);
-    const run = runProfile(series, single, tag, c)[target.output];
-    const m = measureOutput(series, run.series, run.kept ?? null, reconstruction, gapMs, null);
-    return { value, ratio: m.ratio, maxAbsError: m.maxAbsError ?? Number.NaN, rmse: m.rmse ?? Number.NaN };
-  });
+    // runProfile's order: resolve (a ProfileError for this value), then validate the input.
+    const steps = resolveSteps(single, tag, c).outputs[0].steps;
+    reconstruction ??= reconstructionOf(steps);
+    if (before === undefined) {
+      validateSeries(series);
+      before = runSteps(startSteps(series), steps.slice(0, target.step), env, true);
+    }
+    // The steps up to the last as runProfile runs them; the last one's kept indices are
+    // measured where they point, without picking the samples (or composing the indices).
+    const mid = runSteps(before, steps.slice(target.step, -1), env, true);
+    const result = stepCall(steps[steps.length - 1], env).batch(mid.series);
+    const at = result instanceof Uint32Array && mid.selectionsOnly ? result : null;
+    const reduced: Series = at !== null ? mid.series : result instanceof Uint32Array ? pick(mid.series, result) : result;
+    const samplesOut = at !== null ? at.length : reduced.t.length;
+    const ratio = samplesOut === 0 ? Infinity : series.t.length / samplesOut;
+    // measureOutput's test: a reconstruction and a usable sample sent (the kept indices
+    // alone only matter for the extrema, not measured here).
+    if (reconstruction === null || !hasUsable(reduced, at)) return { value, ratio, maxAbsError: Number.NaN, rmse: Number.NaN };
+    measure ??= new SweepMeasure(series, gapMs);
+    // measureOutput measures the kept samples without quality when the input has none
+    // (then no series here has quality: selections keep the input's).
+    const [maxAbsError, rmse] = measure.errors(reduced, at, reconstruction === "linear");
+    return { value, ratio, maxAbsError, rmse };
+  };
+  return (values) => values.map(evaluate);
+}
+
+/** Whether the series (or its samples at `at`) has a sample that is not bad. */
+function hasUsable(s: Series, at: Uint32Array | null): boolean {
+  const { q } = s;
+  const n = at === null ? s.t.length : at.length;
+  if (n === 0) return false;
+  if (q === undefined) return true;
+  for (let k = 0; k < n; k++) if (q[at === null ? k : at[k]] !== QUALITY_BAD) return true;
+  return false;
 }
 
 /**

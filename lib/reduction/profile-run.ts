@@ -1,6 +1,6 @@
-import type { Profile, ProfileTag, RunContext } from "./profile";
+import type { Profile, ProfileTag, ResolvedStep, RunContext } from "./profile";
 import { resolveSteps } from "./profile-resolve";
-import { stepCall } from "./profile-steps";
+import { type StepEnv, stepCall } from "./profile-steps";
 import { type QualifiedSeries, type Series, validateSeries } from "./series";
 import { DEFAULT_GAP_FACTOR, gapThreshold } from "./signal";
 
@@ -84,4 +84,54 @@ function pickShares(share: Float64Array, kept: Uint32Array): Float64Array {
 
 function withQuality(s: Series): QualifiedSeries {
   return { t: s.t, v: s.v, q: s.q ?? new Uint8Array(s.t.length) };
+}
+
+/** Where one output's run stands after some of its steps (see {@link runSteps}). */
+export type StepsState = {
+  series: Series;
+  /** The kept indices into the input so far; undefined before the first selection. */
+  kept: Uint32Array | undefined;
+  goodShare: Float64Array | undefined;
+  /** False once a step has aggregated. */
+  selectionsOnly: boolean;
+};
+
+/** The state before an output's first step: the input itself. */
+export function startSteps(series: Series): StepsState {
+  return { series, kept: undefined, goodShare: undefined, selectionsOnly: true };
+}
+
+/** The step environment runProfile gives every step: the tag's gaps at ctx.gapFactor, the context's time zone. */
+export function profileStepEnv(tag: ProfileTag, ctx: RunContext = {}): StepEnv {
+  return { gapMs: gapThreshold(tag.samplePeriodMs, ctx.gapFactor ?? DEFAULT_GAP_FACTOR), timeZone: ctx.timeZone, graceMs: 0 };
+}
+
+/**
+ * Runs `steps` on from `state` exactly as {@link runProfile} runs an output's steps (same
+ * calls, same arithmetic), so running an output's first steps once and the rest from the
+ * result gives runProfile's output. The input is not validated here (runProfile
+ * validates it first). With `shareWhole`, a selection step that keeps every sample
+ * passes its input series (and kept indices) on as they are instead of copying them —
+ * the same samples, but the result may share arrays with the input and the state.
+ */
+export function runSteps(state: StepsState, steps: readonly ResolvedStep[], env: StepEnv, shareWhole = false): StepsState {
+  let { series: current, kept, goodShare, selectionsOnly } = state;
+  for (const step of steps) {
+    const result = stepCall(step, env).batch(current);
+    if (result instanceof Uint32Array) {
+      // Ascending indices in range, as many as samples: every sample, in order.
+      if (shareWhole && result.length === current.t.length) {
+        kept ??= result;
+        continue;
+      }
+      current = pick(current, result);
+      kept = kept === undefined ? result : compose(kept, result);
+      if (goodShare !== undefined) goodShare = pickShares(goodShare, result);
+    } else {
+      current = result;
+      goodShare = result.goodShare;
+      selectionsOnly = false;
+    }
+  }
+  return { series: current, kept, goodShare, selectionsOnly };
 }
