@@ -3,7 +3,7 @@
 import { parseSampleCsv } from "@/lib/preview/csv";
 import { demoSignal } from "@/lib/preview/demo-signals";
 import { previewProfile, type OutputPreview } from "@/lib/preview/run";
-import { findSetting, sweepParameter, type SweepPoint } from "@/lib/preview/sweep";
+import { createSweep, findSetting, type SweepPoint } from "@/lib/preview/sweep";
 import { QUALITY_BAD, type Series } from "@/lib/reduction/series";
 import { align, decimate, gapStarts, markers, type Drawn } from "./decimate";
 import { HelperPool, runContext, serveHelper } from "./sweep-helpers";
@@ -87,7 +87,9 @@ const handlers: { [K in CallKind]: (p: Calls[K]["req"]) => Promise<Calls[K]["res
     const t0 = performance.now();
     const s = loaded();
     const known = new Map<number, SweepPoint>((await pool.sweep(s, run, target, [...new Set(grid)])).map((p) => [p.value, p]));
-    const evaluate = (value: number) => known.get(value) ?? sweepParameter(s, run.profile, run.tag, target, [value], runContext(run))[0];
+    // One sweep for every refinement point: the steps before the swept one run once.
+    const sweep = createSweep(s, run.profile, run.tag, target, runContext(run));
+    const evaluate = (value: number) => known.get(value) ?? sweep([value])[0];
     const { best, evaluated } = findSetting(evaluate, grid, goal, { rounds: 2, points: 4 });
     return { best, evaluated, ms: performance.now() - t0 };
   },
