@@ -44,7 +44,7 @@ export default async function ChangePage({ params }: Readonly<Props>) {
         </div>
       </div>
 
-      <div className="grid gap-4 lg:grid-cols-[1fr_minmax(18rem,24rem)]">
+      <div className="grid items-start gap-4 lg:grid-cols-[1fr_minmax(18rem,24rem)]">
         <section aria-label="Who and when" className="rounded-panel border border-panel-line bg-panel p-4">
           <ChangeTimeline change={change} />
         </section>
