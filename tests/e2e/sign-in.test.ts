@@ -35,10 +35,10 @@ describe("sign-in and navigation by role", () => {
   });
 
   const expectedNav = {
-    admin: ["Overview", "Sites", "Audit log", "Users"],
-    reviewer: ["Overview", "Sites", "Audit log"],
-    engineer: ["Overview", "Sites", "Audit log"],
-    viewer: ["Overview", "Sites", "Audit log"],
+    admin: ["Overview", "Sites", "Profiles", "Workbench", "Uplink and storage", "Audit log", "Users", "Mail"],
+    reviewer: ["Overview", "Sites", "Profiles", "Workbench", "Uplink and storage", "Audit log"],
+    engineer: ["Overview", "Sites", "Profiles", "Workbench", "Uplink and storage", "Audit log"],
+    viewer: ["Overview", "Sites", "Profiles", "Workbench", "Uplink and storage", "Audit log"],
   } as const;
 
   for (const role of ["admin", "reviewer", "engineer", "viewer"] as const) {
