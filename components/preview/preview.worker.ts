@@ -3,6 +3,7 @@
 import { parseSampleCsv } from "@/lib/preview/csv";
 import { demoSignal } from "@/lib/preview/demo-signals";
 import { previewProfile, type OutputPreview } from "@/lib/preview/run";
+import { decodeSeriesWire, encodeSeriesWire } from "@/lib/samples/wire";
 import { createSweep, findSetting, type SweepPoint } from "@/lib/preview/sweep";
 import { QUALITY_BAD, type Series } from "@/lib/reduction/series";
 import { align, decimate, gapStarts, markers, type Drawn } from "./decimate";
@@ -60,6 +61,14 @@ const handlers: { [K in CallKind]: (p: Calls[K]["req"]) => Promise<Calls[K]["res
     if (!parsed.ok) return { problems: parsed.problems };
     const c = parsed.columns;
     return { summary: hold(parsed.series, file.name, parsed.format, [c.time, c.value, c.quality].filter(Boolean).join(", ")) };
+  },
+  "load-wire"({ buffer, source }) {
+    const decoded = decodeSeriesWire(buffer);
+    if (!decoded.ok) return { problems: [{ line: 0, message: decoded.message }] };
+    return { summary: hold(decoded.series, source, "saved", null) };
+  },
+  "export-wire"() {
+    return { buffer: encodeSeriesWire(loaded()) };
   },
   "load-demo"({ signal, samples, periodMs, euLow, euHigh }) {
     const s = demoSignal(signal, { samples, periodMs, euLow, euHigh, start: Date.UTC(2026, 0, 5, 6), seed: 7 });

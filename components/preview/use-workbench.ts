@@ -167,6 +167,30 @@ export function useWorkbench(initialSite: { slug: string; timeZone: string } | n
     }
   };
 
+  /** Loads a saved sample set (our binary wire format) into the worker. */
+  const loadSaved = async (id: number, name: string) => {
+    if (!client) return;
+    setLoading(true);
+    try {
+      const res = await fetch(`/api/sample-sets/${id}/data`);
+      if (!res.ok) throw new Error(((await res.json().catch(() => ({}))) as { error?: string }).error ?? `the server answered ${res.status}`);
+      const r = await client.call("load-wire", { buffer: await res.arrayBuffer(), source: `sample set “${name}”` });
+      if ("problems" in r) setCsvProblems(r.problems);
+      else loaded(r.summary);
+    } catch (e) {
+      const msg = quiet(e);
+      if (msg !== null) setCsvProblems([{ line: 0, message: msg }]);
+    } finally {
+      setLoading(false);
+    }
+  };
+
+  /** The loaded samples in the wire format, for saving as a sample set. */
+  const exportSamples = async (): Promise<ArrayBuffer> => {
+    if (!client) throw new Error("The preview worker is not ready.");
+    return (await client.call("export-wire", {})).buffer;
+  };
+
   const requestRange = async (from: number, to: number, w: number) => {
     width.current = w;
     range.current = { from, to };
@@ -230,6 +254,8 @@ export function useWorkbench(initialSite: { slug: string; timeZone: string } | n
     loading,
     loadFile,
     loadDemo,
+    loadSaved,
+    exportSamples,
     result,
     runError,
     running,

@@ -8,12 +8,19 @@ import { numericParams } from "./numeric-params";
 import { ParamEditor } from "./param-editor";
 import { PreviewChart } from "./preview-chart";
 import { ProfilePicker, type ProfileOption } from "./profile-picker";
+import { SampleSets } from "./sample-sets";
 import { SampleSource } from "./sample-source";
+import { readTag, type TagFields } from "./tag-fields";
 import { TagContext, type SiteOption } from "./tag-context";
 import { TuningPanel } from "./tuning-panel";
 import { BYTE_MODEL, useWorkbench } from "./use-workbench";
 
-type Props = { profiles: readonly ProfileOption[]; sites: readonly SiteOption[] };
+type Props = { profiles: readonly ProfileOption[]; sites: readonly SiteOption[]; canEdit?: boolean };
+
+const tagOf = (f: TagFields) => {
+  const t = readTag(f);
+  return "tag" in t ? t.tag : null;
+};
 
 function Panel({ title, children }: Readonly<{ title: string; children: ReactNode }>) {
   return (
@@ -27,9 +34,9 @@ function Panel({ title, children }: Readonly<{ title: string; children: ReactNod
 /**
  * Try a profile on sample data: choose a revision (or edit its numbers here), the tag it
  * would run on and the data; see the chart, the metrics, and tune one parameter. All the
- * work happens in a web worker; nothing on this page is saved.
+ * work happens in a web worker; only a sample set saved against a group is kept.
  */
-export function Workbench({ profiles, sites }: Readonly<Props>) {
+export function Workbench({ profiles, sites, canEdit = false }: Readonly<Props>) {
   const w = useWorkbench(sites[0] ?? null);
   const chartBox = useRef<HTMLDivElement>(null);
   useEffect(() => {
@@ -75,6 +82,9 @@ export function Workbench({ profiles, sites }: Readonly<Props>) {
           </Panel>
           <Panel title="Sample data">
             <SampleSource summary={sample} problems={w.csvProblems} loading={w.loading} timeZone={w.timeZone} onFile={w.loadFile} onDemo={w.loadDemo} />
+          </Panel>
+          <Panel title="Sample sets">
+            <SampleSets site={w.site} canEdit={canEdit} hasSamples={!!sample} tag={tagOf(w.tagFields)} onLoad={w.loadSaved} exportSamples={w.exportSamples} />
           </Panel>
         </div>
       </div>

@@ -14,7 +14,7 @@ export type SampleSummary = {
   from: number;
   to: number;
   bad: number;
-  format: TimestampFormat | "generated";
+  format: TimestampFormat | "generated" | "saved";
   columns: string | null;
 };
 
@@ -42,6 +42,8 @@ export type Calls = {
     res: { outputs: OutputSummary[]; view: ViewData; ms: number };
   };
   view: { req: { from: number; to: number; width: number; gapMs: number }; res: ViewData };
+  "load-wire": { req: { buffer: ArrayBuffer; source: string }; res: { summary: SampleSummary } | { problems: CsvProblem[] } };
+  "export-wire": { req: Record<string, never>; res: { buffer: ArrayBuffer } };
   sweep: { req: { run: RunSpec; target: SweepTarget; values: number[] }; res: { points: SweepPoint[]; ms: number } };
   find: {
     req: { run: RunSpec; target: SweepTarget; grid: number[]; goal: SettingGoal };

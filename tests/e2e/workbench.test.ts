@@ -79,6 +79,7 @@ describe("workbench: try a profile on sample data in the browser", () => {
 
     // Drag across the chart to zoom in, pan, and come back to the whole series.
     const before = await chart.locator("p").first().textContent();
+    await chart.locator(".u-over").scrollIntoViewIfNeeded();
     const box = (await chart.locator(".u-over").boundingBox())!;
     await page.mouse.move(box.x + box.width * 0.3, box.y + box.height / 2);
     await page.mouse.down();
@@ -113,6 +114,25 @@ describe("workbench: try a profile on sample data in the browser", () => {
     const chosen = Number(await page.getByLabel(/^Deviation \(degC\)/).inputValue());
     expect(chosen).toBeGreaterThan(0.05);
     expect(chosen).toBeLessThan(0.35);
+
+    // Save the samples against the pasteuriser group, load them back, and see the estimate use them.
+    const sets = page.getByRole("region", { name: "Sample sets" });
+    await sets.getByLabel("Group for sample sets").selectOption({ label: "pasteuriser-temperatures" });
+    await sets.getByLabel("Sample set name").fill("Holding tube, morning run");
+    await sets.getByRole("button", { name: "Save as sample set" }).click();
+    await page.getByTestId("sample-set-status").filter({ hasText: "Saved “Holding tube, morning run” (20,000 samples)" }).waitFor();
+    await sets.getByRole("button", { name: "Load Holding tube, morning run" }).click();
+    await page.getByTestId("sample-summary").filter({ hasText: "sample set “Holding tube, morning run”: 20,000 samples" }).waitFor();
+    await page.goto(`${BASE_URL}/sites/fenwick-creamery/estimates`);
+    const estimate = page.getByTestId("estimate-pasteuriser-temperatures");
+    expect(await estimate.textContent()).toContain("sample set “Holding tube, morning run”");
+    expect(await estimate.textContent()).toContain("measured");
+    // The assumptions are one click away.
+    await page.getByText("Assumptions behind these figures").click();
+    expect(await page.getByRole("list", { name: "Assumptions" }).textContent()).toContain("16 bytes");
+    await screenshot(page, "estimates");
+    await page.goto(`${BASE_URL}/workbench`);
+    await page.getByLabel("Profile", { exact: true }).selectOption({ label: "Temperature shape (analog)" });
 
     // A bad CSV: the problems name their lines, and nothing is loaded from it.
     const bad = ["time,value", "2026-03-02T06:00:00Z,20.1", "2026-03-02T06:00:01Z,hot", "2026-03-02T06:00:03Z,20.3", "2026-03-02T06:00:02Z,20.4"].join("\n");

@@ -1,17 +1,9 @@
 /** Test helpers: a seeded PRNG and series builders (deterministic for a given seed). */
 import type { Series } from "@/lib/reduction";
 
-/** Mulberry32 (T. Ettinger, public domain — attribution from memory): a small seeded PRNG returning [0, 1). */
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let x = a;
-    x = Math.imul(x ^ (x >>> 15), x | 1);
-    x ^= x + Math.imul(x ^ (x >>> 7), x | 61);
-    return ((x ^ (x >>> 14)) >>> 0) / 4294967296;
-  };
-}
+/** Mulberry32, the seeded PRNG of the demo signals (one copy in the code base). */
+export { mulberry32 } from "@/lib/preview/demo-signals";
+import { mulberry32 } from "@/lib/preview/demo-signals";
 
 export function series(t: number[], v: number[]): Series {
   return { t: Float64Array.from(t), v: Float64Array.from(v) };
