@@ -61,17 +61,20 @@ function fillLttb(t: Float64Array, v: Float64Array, out: Uint32Array, every: num
   const buckets = out.length - 2;
   let a = 0;
   let tPrev = t[Math.floor(every)];
+  // Bucket i spans [from, to) with from = floor(i·every) + 1 and to = floor((i + 1)·every) + 1,
+  // the reference's expressions; each bound is computed once and handed on to the next bucket.
+  let from = 1;
+  let to = Math.floor(every) + 1;
   for (let i = 0; i < buckets; i++) {
     // Average of the next bucket (the third corner of the triangle).
-    let avgStart = Math.floor((i + 1) * every) + 1;
-    let avgEnd = Math.floor((i + 2) * every) + 1;
-    avgEnd = avgEnd < n ? avgEnd : n;
-    const avgLength = avgEnd - avgStart;
+    const next = Math.floor((i + 2) * every) + 1;
+    const avgEnd = next < n ? next : n;
+    const avgLength = avgEnd - to;
     let avgX = 0;
     let avgY = 0;
-    for (; avgStart < avgEnd; avgStart++) {
-      const x = t[avgStart];
-      const y = v[avgStart];
+    for (let k = to; k < avgEnd; k++) {
+      const x = t[k];
+      const y = v[k];
       if (!(x > tPrev) || y - y !== 0) return false;
       tPrev = x;
       avgX += x;
@@ -80,24 +83,23 @@ function fillLttb(t: Float64Array, v: Float64Array, out: Uint32Array, every: num
     avgX /= avgLength;
     avgY /= avgLength;
 
-    const from = Math.floor(i * every) + 1;
-    const to = Math.floor((i + 1) * every) + 1;
     const ax = t[a];
     const ay = v[a];
     const bx = ax - avgX;
     const by = avgY - ay;
     let maxArea = -1;
-    let next = from;
+    let best = from;
     for (let j = from; j < to; j++) {
       // The reference's expression, operation for operation.
       const area = Math.abs(bx * (v[j] - ay) - (ax - t[j]) * by) * 0.5;
-      if (area > maxArea) {
-        maxArea = area;
-        next = j;
-      }
+      const better = area > maxArea;
+      maxArea = better ? area : maxArea;
+      best = better ? j : best;
     }
-    out[i + 1] = next;
-    a = next;
+    out[i + 1] = best;
+    a = best;
+    from = to;
+    to = next;
   }
   return true;
 }
