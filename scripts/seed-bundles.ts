@@ -5,11 +5,10 @@
  * after the seeders with `node --conditions=react-server --import tsx`.
  */
 import { QueryTypes } from "sequelize";
-import { digestHex } from "@/lib/bundles/digest";
-import { signBytes } from "@/lib/bundles/signing";
 import { renderAndValidate, siteContext } from "@/lib/data/release-render";
+import { issuedAt, storeSignedBundles } from "@/lib/data/releases";
 import { signingKeys } from "@/lib/data/signing-keys";
-import { Bundle, Release, Site, sequelize } from "@/models";
+import { Release, Site, sequelize } from "@/models";
 
 async function main() {
   await sequelize.query("UPDATE sites s SET release_counter = GREATEST(release_counter, COALESCE((SELECT MAX(r.number) FROM releases r WHERE r.site_id = s.id), 0))", {
@@ -22,16 +21,9 @@ async function main() {
       const release = (await Release.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE }))!;
       const site = (await Site.findByPk(release.siteId, { transaction }))!;
       const ctx = await siteContext(site, transaction);
-      const issued = release.releasedAt.toISOString().replace(/\.\d{3}Z$/, "Z");
+      const issued = issuedAt(release.releasedAt);
       const bundles = await renderAndValidate(ctx, release.config, release.number, issued, active.id, transaction);
-      const idOf = new Map(ctx.gateways.map((g) => [g.slug, g.id]));
-      await Bundle.bulkCreate(
-        [...bundles].map(([gateway, text]) => {
-          const bytes = Buffer.from(text, "utf8");
-          return { releaseId: release.id, gatewayId: idOf.get(gateway)!, gatewaySlug: gateway, digest: digestHex(bytes), keyId: active.id, signature: signBytes(active, bytes), bytes };
-        }),
-        { transaction },
-      );
+      await storeSignedBundles(release.id, ctx, bundles, active, transaction);
       console.log(`bundles: ${site.slug} release ${release.number}: ${bundles.size} rendered and signed`);
     });
   }

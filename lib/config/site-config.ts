@@ -35,7 +35,7 @@ export type DraftEdit =
   | { key: string; kind: "overrides-changed"; group: string; groupOverrides: boolean; tags: string[] };
 
 /** JSON with object keys sorted, so snapshots compare equal whatever order they were written in. */
-const stable = (v: unknown): string =>
+export const stable = (v: unknown): string =>
   JSON.stringify(v, (_k, x: unknown) =>
     x !== null && typeof x === "object" && !Array.isArray(x) ? Object.fromEntries(Object.entries(x as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))) : x,
   );

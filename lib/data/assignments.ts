@@ -60,13 +60,10 @@ async function lastAcknowledgement(groupId: number): Promise<Acknowledgement | n
   return { by: ack.userEmail, at: ack.acknowledgedAt.toISOString(), cautionId: ack.cautionId, profile: rev ? `${rev.profile?.name} revision ${rev.number}` : null };
 }
 
-/** Every group of the site in priority order with its assignment, newer revisions and last caution acknowledgement. */
-export async function listAssignments(actor: Actor | null, siteSlug: string): Promise<GroupAssignmentRow[]> {
-  assertCan(actor, "read");
-  const site = await siteBySlug(siteSlug);
+async function assignmentRows(site: Site): Promise<{ rows: GroupAssignmentRow[]; tagsOf: Map<string, TagView[]> }> {
   const { tagsOf } = await membership(site.id);
   const groups = await TagGroup.findAll({ where: { siteId: site.id }, include: ASSIGNMENT_INCLUDE, order: [["priority", "ASC"], ["name", "ASC"]] });
-  return Promise.all(
+  const rows = await Promise.all(
     groups.map(async (g) => {
       const tags = tagsOf.get(g.name) ?? [];
       return {
@@ -82,15 +79,22 @@ export async function listAssignments(actor: Actor | null, siteSlug: string): Pr
       };
     }),
   );
+  return { rows, tagsOf };
+}
+
+/** Every group of the site in priority order with its assignment, newer revisions and last caution acknowledgement. */
+export async function listAssignments(actor: Actor | null, siteSlug: string): Promise<GroupAssignmentRow[]> {
+  assertCan(actor, "read");
+  return (await assignmentRows(await siteBySlug(siteSlug))).rows;
 }
 
 /** One group's assignment with the tags it applies to (for overrides and the unit check). */
 export async function getGroupAssignment(actor: Actor | null, siteSlug: string, groupId: number): Promise<GroupAssignmentRow & { tags: GroupTag[]; timeZone: string }> {
   assertCan(actor, "read");
   const site = await siteBySlug(siteSlug);
-  const row = (await listAssignments(actor, siteSlug)).find((r) => r.groupId === groupId);
+  const { rows, tagsOf } = await assignmentRows(site);
+  const row = rows.find((r) => r.groupId === groupId);
   if (!row) throw new HttpError(404, `no group with id ${groupId} at this site`, "group");
-  const { tagsOf } = await membership(site.id);
   return { ...row, tags: (tagsOf.get(row.group) ?? []).map(profileTag), timeZone: site.timeZone };
 }
 

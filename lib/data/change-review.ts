@@ -2,7 +2,7 @@ import "server-only";
 import type { Transaction } from "sequelize";
 import { summarizeChange } from "@/lib/bundles/summary";
 import type { Actor } from "@/lib/auth/guard";
-import type { AssignmentConfig, SiteConfig } from "@/lib/config/site-config";
+import { stable, type AssignmentConfig, type SiteConfig } from "@/lib/config/site-config";
 import { previewProfile } from "@/lib/preview";
 import type { Profile } from "@/lib/reduction/profile";
 import { unpackSeries } from "@/lib/samples/storage";
@@ -10,7 +10,7 @@ import { convertUnit } from "@/lib/units";
 import { Bundle, Release, SampleSet, Site, TagGroup, type ChangeReview } from "@/models";
 import { siteEstimate } from "./estimates";
 import { pinnedProfiles, renderAndValidate, siteContext } from "./release-render";
-import { issuedNow } from "./releases";
+import { issuedAt, issuedNow } from "./releases";
 import { signingKeys } from "./signing-keys";
 
 type Accuracy = { ratio: number | null; maxAbsError: number | null; rmse: number | null };
@@ -20,7 +20,7 @@ export type Impact = {
 };
 type BandwidthFigures = { meanKbps: number; peakKbps: number; gbPerMonth: number; storageCostPerMonthAtRetention: number };
 
-const same = (a: AssignmentConfig | null, b: AssignmentConfig | null) => JSON.stringify(a) === JSON.stringify(b);
+const same = (a: AssignmentConfig | null, b: AssignmentConfig | null) => stable(a) === stable(b);
 
 function runOn(set: SampleSet, doc: Profile, a: AssignmentConfig, timeZone: string): Map<string, Accuracy> {
   const series = unpackSeries(set.encoding, set.data);
@@ -61,8 +61,7 @@ async function currentBundles(site: Site, base: SiteConfig, transaction?: Transa
   if (!release) return new Map();
   const rows = await Bundle.findAll({ where: { releaseId: release.id }, attributes: ["gatewaySlug", "bytes"], transaction });
   if (rows.length) return new Map(rows.map((b) => [b.gatewaySlug, b.bytes.toString("utf8")]));
-  const issued = release.releasedAt.toISOString().replace(/\.\d{3}Z$/, "Z");
-  return renderAndValidate(await siteContext(site, transaction), base, release.number, issued, signingKeys().active.id, transaction);
+  return renderAndValidate(await siteContext(site, transaction), base, release.number, issuedAt(release.releasedAt), signingKeys().active.id, transaction);
 }
 
 /**

@@ -2,18 +2,19 @@ import "server-only";
 import type { Transaction } from "sequelize";
 import { diffBundles } from "@/lib/bundles/diff";
 import { digestHex } from "@/lib/bundles/digest";
-import { signBytes } from "@/lib/bundles/signing";
+import { signBytes, type SigningKey } from "@/lib/bundles/signing";
 import type { Actor } from "@/lib/auth/guard";
 import type { SiteConfig } from "@/lib/config/site-config";
 import { HttpError } from "@/lib/http";
 import { Bundle, Release, Site, User } from "@/models";
 import { assertCan } from "./access";
-import { renderAndValidate, siteContext } from "./release-render";
+import { renderAndValidate, siteContext, type SiteContext } from "./release-render";
 import { signingKeys } from "./signing-keys";
 import { siteBySlug } from "./sites";
 
-/** ISO time to the second, as bundles carry it. */
-export const issuedNow = () => new Date(Math.floor(Date.now() / 1000) * 1000).toISOString().replace(".000Z", "Z");
+/** A time as bundles carry it: ISO 8601 UTC to the second. */
+export const issuedAt = (d: Date) => d.toISOString().replace(/\.\d{3}Z$/, "Z");
+export const issuedNow = () => issuedAt(new Date());
 
 /**
  * The next release number of a site: its counter + 1, under a row lock on the site held
@@ -56,15 +57,20 @@ export async function publishRelease(site: Site, config: SiteConfig, opts: Publi
     },
     { transaction },
   );
+  await storeSignedBundles(release.id, ctx, bundles, active, transaction);
+  return release;
+}
+
+/** Signs each rendered bundle (Ed25519 over its exact bytes, with its SHA-256 digest) and stores it for the release. */
+export async function storeSignedBundles(releaseId: number, ctx: SiteContext, bundles: Map<string, string>, key: SigningKey, transaction: Transaction): Promise<void> {
   const idOf = new Map(ctx.gateways.map((g) => [g.slug, g.id]));
   await Bundle.bulkCreate(
     [...bundles].map(([gateway, text]) => {
       const bytes = Buffer.from(text, "utf8");
-      return { releaseId: release.id, gatewayId: idOf.get(gateway)!, gatewaySlug: gateway, digest: digestHex(bytes), keyId: active.id, signature: signBytes(active, bytes), bytes };
+      return { releaseId, gatewayId: idOf.get(gateway)!, gatewaySlug: gateway, digest: digestHex(bytes), keyId: key.id, signature: signBytes(key, bytes), bytes };
     }),
     { transaction },
   );
-  return release;
 }
 
 export type ReleaseView = {
