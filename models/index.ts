@@ -5,6 +5,7 @@ import { AuditEvent } from "./audit-event";
 import { Bundle } from "./bundle";
 import { Change, ChangeAuthor, type ChangeReview } from "./change";
 import { Gateway } from "./gateway";
+import { GatewayReport, GatewayToken } from "./gateway-token";
 import { ProfileRevision, ReductionProfile } from "./profile";
 import { Release } from "./release";
 import { SampleSet } from "./sample-set";
@@ -35,6 +36,8 @@ if (!globalForModels.sluiceModelsReady || !User.sequelize) {
   Release.initModel(sequelize);
   SampleSet.initModel(sequelize);
   Bundle.initModel(sequelize);
+  GatewayToken.initModel(sequelize);
+  GatewayReport.initModel(sequelize);
 
   Site.hasMany(Gateway, { foreignKey: "siteId", as: "gateways" });
   Gateway.belongsTo(Site, { foreignKey: "siteId", as: "site" });
@@ -59,6 +62,9 @@ if (!globalForModels.sluiceModelsReady || !User.sequelize) {
   Release.hasMany(Bundle, { foreignKey: "releaseId", as: "bundles" });
   Release.belongsTo(User, { foreignKey: "releasedBy", as: "releaser", constraints: false });
   SampleSet.belongsTo(User, { foreignKey: "createdBy", as: "author", constraints: false });
+  Gateway.hasMany(GatewayToken, { foreignKey: "gatewayId", as: "tokens" });
+  GatewayToken.belongsTo(Gateway, { foreignKey: "gatewayId", as: "gateway" });
+  Gateway.hasMany(GatewayReport, { foreignKey: "gatewayId", as: "reports" });
   globalForModels.sluiceModelsReady = true;
 }
 
@@ -73,6 +79,8 @@ export {
   Change,
   ChangeAuthor,
   Gateway,
+  GatewayReport,
+  GatewayToken,
   ProfileRevision,
   ReductionProfile,
   Release,

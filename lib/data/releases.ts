@@ -61,7 +61,10 @@ export async function publishRelease(site: Site, config: SiteConfig, opts: Publi
   return release;
 }
 
-/** Signs each rendered bundle (Ed25519 over its exact bytes, with its SHA-256 digest) and stores it for the release. */
+/**
+ * Signs each rendered bundle (Ed25519 over its exact bytes, with its SHA-256 digest), stores
+ * it for the release, and points the site's gateways at their bundle of the newest release.
+ */
 export async function storeSignedBundles(releaseId: number, ctx: SiteContext, bundles: Map<string, string>, key: SigningKey, transaction: Transaction): Promise<void> {
   const idOf = new Map(ctx.gateways.map((g) => [g.slug, g.id]));
   await Bundle.bulkCreate(
@@ -70,6 +73,15 @@ export async function storeSignedBundles(releaseId: number, ctx: SiteContext, bu
       return { releaseId, gatewayId: idOf.get(gateway)!, gatewaySlug: gateway, digest: digestHex(bytes), keyId: key.id, signature: signBytes(key, bytes), bytes };
     }),
     { transaction },
+  );
+  // What a gateway pull serves: the bundle of the site's newest release (none when that release has no bundle for it).
+  await Bundle.sequelize!.query(
+    `UPDATE gateways g
+       LEFT JOIN bundles b ON b.gateway_id = g.id
+        AND b.release_id = (SELECT r.id FROM releases r WHERE r.site_id = g.site_id ORDER BY r.number DESC LIMIT 1)
+        SET g.current_bundle_id = b.id
+      WHERE g.site_id = (SELECT site_id FROM releases WHERE id = :releaseId)`,
+    { replacements: { releaseId }, transaction },
   );
 }
 
