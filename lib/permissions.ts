@@ -54,6 +54,9 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   "GET /api/sites/[site]/gateways/[gateway]": "read",
   "PATCH /api/sites/[site]/gateways/[gateway]": "fleet.admin",
   "DELETE /api/sites/[site]/gateways/[gateway]": "fleet.admin",
+  "GET /api/sites/[site]/gateways/[gateway]/tokens": "fleet.admin",
+  "POST /api/sites/[site]/gateways/[gateway]/tokens": "fleet.admin",
+  "DELETE /api/sites/[site]/gateways/[gateway]/tokens/[tokenId]": "fleet.admin",
   "GET /api/sites/[site]/tags": "read",
   "POST /api/sites/[site]/tags": "config.edit",
   "DELETE /api/sites/[site]/tags": "config.edit",
@@ -119,4 +122,6 @@ export const ACTION_ACCESS: Record<string, Permission> = {
   "(console)/sites/actions.ts#createGatewayAction": "fleet.admin",
   "(console)/sites/actions.ts#updateGatewayAction": "fleet.admin",
   "(console)/sites/actions.ts#deleteGatewayAction": "fleet.admin",
+  "(console)/sites/[site]/gateways/[gateway]/actions.ts#issueGatewayTokenAction": "fleet.admin",
+  "(console)/sites/[site]/gateways/[gateway]/actions.ts#revokeGatewayTokenAction": "fleet.admin",
 };

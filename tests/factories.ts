@@ -4,7 +4,7 @@ import { NextRequest } from "next/server";
 import bcrypt from "bcryptjs";
 import type { Role } from "@/lib/permissions";
 import type { Profile } from "@/lib/reduction/profile";
-import { Assignment, Gateway, ProfileRevision, ReductionProfile, SampleSet, Site, Tag, TagGroup, TagGroupRule, User } from "@/models";
+import { Assignment, Gateway, GatewayToken, ProfileRevision, ReductionProfile, SampleSet, Site, Tag, TagGroup, TagGroupRule, User } from "@/models";
 import { setSessionCookie } from "./integration/cookie-jar";
 
 const unique = () => randomUUID().slice(0, 8);
@@ -36,6 +36,21 @@ export async function createSite(over: Partial<{ slug: string; name: string; tim
 export async function createGateway(site: Site, over: Partial<{ slug: string; name: string }> = {}) {
   const id = unique();
   return Gateway.create({ siteId: site.id, slug: over.slug ?? `gw-${id}`, name: over.name ?? `Gateway ${id}` });
+}
+
+/** A live gateway token, created directly (no audit); the token is returned since only its hash is stored. */
+export async function createGatewayToken(gateway: Gateway, over: Partial<{ label: string; revoked: boolean }> = {}) {
+  const { generateToken } = await import("@/lib/gateway/token");
+  const { token, hash, prefix } = generateToken();
+  const row = await GatewayToken.create({
+    gatewayId: gateway.id,
+    tokenHash: hash,
+    prefix,
+    label: over.label ?? "",
+    createdBy: null,
+    revokedAt: over.revoked ? new Date() : null,
+  });
+  return { id: row.id, token, row };
 }
 
 export async function createTag(site: Site, gateway: Gateway, over: Partial<{ name: string; unit: string; kind: "analog" | "discrete" | "counter"; area: string | null }> = {}) {

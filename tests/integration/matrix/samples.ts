@@ -2,7 +2,7 @@ import { randomUUID } from "node:crypto";
 import { Change, type Gateway, type Site, type Tag } from "@/models";
 import { profileToYaml } from "@/lib/profiles/yaml";
 import { encodeSeriesWire } from "@/lib/samples/wire";
-import { createAssignment, createGateway, createGroup, createProfile, createSampleSet, createSite, createTag, createUser, profileDocument } from "../../factories";
+import { createAssignment, createGateway, createGatewayToken, createGroup, createProfile, createSampleSet, createSite, createTag, createUser, profileDocument } from "../../factories";
 
 // One valid request per route and one valid input per server action, so that an allowed
 // role gets a success and the matrix measures authorisation alone. Called once per role:
@@ -95,6 +95,19 @@ export const ROUTE_SAMPLES: Record<string, RouteSample> = {
   "DELETE /api/sites/[site]/gateways/[gateway]": async (fx) => {
     const gw = await createGateway(fx.site);
     return { path: `/api/sites/${fx.site.slug}/gateways/${gw.slug}`, params: { site: fx.site.slug, gateway: gw.slug } };
+  },
+  "GET /api/sites/[site]/gateways/[gateway]/tokens": async (fx) => ({
+    path: `/api/sites/${fx.site.slug}/gateways/${fx.gateway.slug}/tokens`,
+    params: { site: fx.site.slug, gateway: fx.gateway.slug },
+  }),
+  "POST /api/sites/[site]/gateways/[gateway]/tokens": async (fx) => ({
+    path: `/api/sites/${fx.site.slug}/gateways/${fx.gateway.slug}/tokens`,
+    params: { site: fx.site.slug, gateway: fx.gateway.slug },
+    body: { label: "matrix" },
+  }),
+  "DELETE /api/sites/[site]/gateways/[gateway]/tokens/[tokenId]": async (fx) => {
+    const token = await createGatewayToken(fx.gateway);
+    return { path: "/", params: { site: fx.site.slug, gateway: fx.gateway.slug, tokenId: String(token.id) } };
   },
   "GET /api/sites/[site]/tags": async (fx) => ({ path: `/api/sites/${fx.site.slug}/tags`, params: { site: fx.site.slug } }),
   "POST /api/sites/[site]/tags": async (fx) => ({ path: `/api/sites/${fx.site.slug}/tags`, params: { site: fx.site.slug }, body: tagBody(fx.gateway.slug) }),
@@ -277,4 +290,14 @@ export const ACTION_SAMPLES: Record<string, (fx: Fixture) => Promise<unknown>> =
     values: { ...gatewayBody(), slug: fx.gateway.slug },
   }),
   "(console)/sites/actions.ts#deleteGatewayAction": async (fx) => ({ site: fx.site.slug, gateway: (await createGateway(fx.site)).slug }),
+  "(console)/sites/[site]/gateways/[gateway]/actions.ts#issueGatewayTokenAction": async (fx) => ({
+    site: fx.site.slug,
+    gateway: fx.gateway.slug,
+    values: { label: "matrix action" },
+  }),
+  "(console)/sites/[site]/gateways/[gateway]/actions.ts#revokeGatewayTokenAction": async (fx) => ({
+    site: fx.site.slug,
+    gateway: fx.gateway.slug,
+    tokenId: (await createGatewayToken(fx.gateway)).id,
+  }),
 };
