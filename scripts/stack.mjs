@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // Brings Sluice up on one machine: dependencies, a private MariaDB on loopback,
 // migrations, demo seed, build, serve — or the same on a throwaway database, then tests.
-// Usage: node scripts/stack.mjs start | dev | test [unit|integration|e2e ...]
+// Usage: node scripts/stack.mjs start | dev | test [unit|integration|e2e ...] | cli <command ...>
 // Only Node built-ins here: this runs before `npm ci`.
 import { spawn, spawnSync } from "node:child_process";
 import { createHash, randomBytes } from "node:crypto";
@@ -18,8 +18,11 @@ const children = new Set();
 let db = null;
 let tmpData = null;
 
+// In cli mode stdout belongs to the command (a token for scripts); everything else goes to stderr.
+const quietStdout = mode === "cli";
+
 function log(msg) {
-  process.stdout.write(`sluice: ${msg}\n`);
+  (quietStdout ? process.stderr : process.stdout).write(`sluice: ${msg}\n`);
 }
 
 function fail(msg) {
@@ -28,7 +31,7 @@ function fail(msg) {
 }
 
 function run(cmd, args, opts = {}) {
-  const r = spawnSync(cmd, args, { stdio: "inherit", cwd: root, ...opts });
+  const r = spawnSync(cmd, args, { stdio: quietStdout ? ["inherit", 2, "inherit"] : "inherit", cwd: root, ...opts });
   if (r.error) throw r.error;
   return r.status ?? 1;
 }
@@ -528,12 +531,39 @@ async function bench() {
   process.exit(code);
 }
 
+/**
+ * Runs scripts/cli.ts with the remaining arguments against the one-machine database: the
+ * private MariaDB on SLUICE_DB_PORT (3307) when it answers, otherwise started (and
+ * migrated) for the command and stopped after. DATABASE_URL, when set, wins. The
+ * command's exit code is this script's.
+ */
+async function cli() {
+  ensureNodeModules();
+  const dataDir = path.resolve(root, process.env.SLUICE_DATA_DIR ?? ".data");
+  fs.mkdirSync(dataDir, { recursive: true });
+  const env = { ...process.env, SLUICE_DATA_DIR: dataDir, NEXT_TELEMETRY_DISABLED: "1" };
+  if (!process.env.DATABASE_URL) {
+    const secrets = readSecrets(dataDir);
+    const port = Number(process.env.SLUICE_DB_PORT ?? 3307);
+    env.DATABASE_URL = dbUrl(port, "sluice", secrets.dbPassword);
+    if (!(await portAnswers(port))) {
+      db = await startDatabase({ dataDir, port, databases: ["sluice"], password: secrets.dbPassword });
+      migrateAndSeed(env, { seed: false });
+    }
+  }
+  const child = spawnChild(process.execPath, ["--conditions=react-server", "--import", "tsx", "scripts/cli.ts", ...parts], env);
+  const code = await new Promise((r) => child.once("exit", (c, signal) => r(c ?? 128 + (os.constants.signals[signal] ?? 0))));
+  await cleanup();
+  process.exit(code);
+}
+
 try {
-  if (mode === "bench") await bench();
+  if (mode === "cli") await cli();
+  else if (mode === "bench") await bench();
   else if (mode === "start") await serve(false);
   else if (mode === "dev") await serve(true);
   else if (mode === "test") await test();
-  else fail(`unknown command ${mode}; use start, dev or test`);
+  else fail(`unknown command ${mode}; use start, dev, test, bench or cli`);
 } catch (err) {
   fail(err instanceof Error ? err.message : String(err));
 }
