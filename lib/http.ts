@@ -49,11 +49,20 @@ export function describeError(err: unknown): { status: number; body: ErrorBody; 
   if (err instanceof DatabaseError && (errno === 1213 || errno === 1205)) {
     return { status: 409, body: { error: "a concurrent change got in the way; reload and try again" }, headers: { "Retry-After": "1" } };
   }
-  if (err instanceof ConnectionError) {
+  if (err instanceof ConnectionError || (err instanceof DatabaseError && lostConnection(err))) {
     return { status: 503, body: { error: "the database is unavailable; try again shortly" }, headers: { "Retry-After": "5" } };
   }
   console.error(err);
   return { status: 500, body: { error: "internal error" } };
+}
+
+/** A query that failed because the connection to the database broke (the server went away mid-request). */
+function lostConnection(err: DatabaseError): boolean {
+  const parent = (err as { parent?: { fatal?: boolean; code?: string; errno?: number } }).parent;
+  if (!parent) return false;
+  if (parent.fatal === true) return true;
+  return ["ECONNREFUSED", "ECONNRESET", "EPIPE", "ER_SOCKET_UNEXPECTED_CLOSE", "ER_CONNECTION_ALREADY_CLOSED", "ER_GET_CONNECTION_TIMEOUT", "ER_CONNECTION_TIMEOUT"].includes(parent.code ?? "")
+    || parent.errno === 2006 || parent.errno === 2013 || parent.errno === 1927;
 }
 
 // Composite unique indexes, by name: the column the person typed, and what to call it.
@@ -92,3 +101,34 @@ export async function readJson(req: Request): Promise<unknown> {
     throw new HttpError(400, "the request body must be JSON", "body");
   }
 }
+
+/**
+ * Reads a JSON body of at most `limit` bytes: 413 when Content-Length says more or the
+ * stream runs past the limit (read no further), 400 when it is not JSON.
+ */
+export async function readJsonLimited(req: Request, limit: number): Promise<unknown> {
+  const declared = req.headers.get("content-length");
+  if (declared !== null && Number(declared) > limit) throw tooLarge(limit);
+  const chunks: Uint8Array[] = [];
+  let size = 0;
+  if (req.body) {
+    const reader = req.body.getReader();
+    for (;;) {
+      const { done, value } = await reader.read();
+      if (done) break;
+      size += value.byteLength;
+      if (size > limit) {
+        await reader.cancel().catch(() => undefined);
+        throw tooLarge(limit);
+      }
+      chunks.push(value);
+    }
+  }
+  try {
+    return JSON.parse(Buffer.concat(chunks).toString("utf8"));
+  } catch {
+    throw new HttpError(400, "the request body must be JSON", "body");
+  }
+}
+
+const tooLarge = (limit: number) => new HttpError(413, `the request body is larger than ${Math.round(limit / 1024)} KiB`, "body");

@@ -85,6 +85,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   "GET /api/sample-sets/[sampleSetId]/data": "read",
   "GET /api/sites/[site]/estimate": "read",
   "GET /api/estimates": "read",
+  "GET /api/fleet": "read",
   "GET /api/sites/[site]/changes": "read",
   "POST /api/sites/[site]/changes": "change.submit",
   "GET /api/sites/[site]/changes/[changeId]": "read",
@@ -106,6 +107,10 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   "GET /api/profiles/[profileId]/diff": "read",
   "POST /api/profiles/[profileId]/duplicate": "config.edit",
   "GET /api/profiles/[profileId]/export": "read",
+  "GET /api/gateway/v1/bundle": "gateway",
+  "GET /api/gateway/v1/signing-key": "gateway",
+  "PUT /api/gateway/v1/check-in": "gateway",
+  "GET /api/gateway/v1/openapi.json": "public",
 };
 
 /**

@@ -152,8 +152,12 @@ export async function actAs(user: User | null) {
 }
 
 /** A request to a route handler, as the user (null = signed out). */
-export async function request(method: string, path: string, opts: { user?: User | null; body?: unknown; rawBody?: string; binaryBody?: ArrayBuffer; cookie?: string } = {}) {
-  const headers = new Headers();
+export async function request(
+  method: string,
+  path: string,
+  opts: { user?: User | null; body?: unknown; rawBody?: string; binaryBody?: ArrayBuffer; cookie?: string; headers?: Record<string, string> } = {},
+) {
+  const headers = new Headers(opts.headers);
   const c = await sessionCookie(opts.user ?? null);
   if (c ?? opts.cookie) headers.set("cookie", (c ?? opts.cookie)!);
   let body: string | ArrayBuffer | undefined;

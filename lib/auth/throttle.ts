@@ -8,11 +8,13 @@ import { SignInThrottle, sequelize } from "@/models";
  * address (tight), the account from anywhere (loose, so rotating addresses does not
  * help), and the address alone (loose). Failures older than an hour are forgotten.
  */
-const RULES = [
+export type ThrottleRule = { prefix: string; free: number; capSeconds: number };
+
+const RULES: readonly ThrottleRule[] = [
   { prefix: "pair", free: 3, capSeconds: 60 },
   { prefix: "acct", free: 20, capSeconds: 60 },
   { prefix: "addr", free: 10, capSeconds: 60 },
-] as const;
+];
 
 const FORGET_AFTER_MS = 60 * 60 * 1000;
 
@@ -35,10 +37,11 @@ export async function waitSeconds(keys: string[], now = new Date()): Promise<num
   return wait;
 }
 
-export async function recordFailure(keys: string[], now = new Date()): Promise<void> {
+/** Counts a failure under each key; `rules[i]` governs `keys[i]` (the sign-in rules by default). */
+export async function recordFailure(keys: string[], now = new Date(), rules: readonly ThrottleRule[] = RULES): Promise<void> {
   await sequelize.transaction(async (transaction) => {
     for (const [i, key] of keys.entries()) {
-      const rule = RULES[i] ?? RULES[RULES.length - 1];
+      const rule = rules[i] ?? rules[rules.length - 1];
       const row = await SignInThrottle.findByPk(key, { transaction, lock: transaction.LOCK.UPDATE });
       const stale = !row || now.getTime() - row.lastFailureAt.getTime() > FORGET_AFTER_MS;
       const failures = stale ? 1 : row.failures + 1;

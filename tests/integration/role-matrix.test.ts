@@ -4,7 +4,7 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { ACTION_ACCESS, ROLES, ROUTE_ACCESS, can, type Role } from "@/lib/permissions";
 import type { User } from "@/models";
 import { actAs, createUser, ctx, request } from "../factories";
-import { ACTION_SAMPLES, ROUTE_SAMPLES, makeFixture, type Fixture } from "./matrix/samples";
+import { ACTION_SAMPLES, GATEWAY_SAMPLES, ROUTE_SAMPLES, makeFixture, releasedGateway, type Fixture } from "./matrix/samples";
 
 // Walks the permissions table (lib/permissions.ts) and calls every route handler and
 // server action as signed-out, viewer, engineer, reviewer and admin.
@@ -103,6 +103,33 @@ describe("role matrix", () => {
       }
     }
     expect(calls).toBeGreaterThan(0);
+  });
+
+  it("opens the gateway API to a live gateway token only", async () => {
+    const g = await releasedGateway();
+    const gatewayRoutes = routes.filter((r) => ROUTE_ACCESS[r.key] === "gateway");
+    expect(gatewayRoutes.map((r) => r.key).sort()).toEqual(Object.keys(GATEWAY_SAMPLES).sort());
+    const cases: { name: string; headers: Record<string, string>; user?: User; want: number | "ok"; challenge?: RegExp }[] = [
+      { name: "no token", headers: {}, want: 401, challenge: /^Bearer realm="sluice"$/ },
+      { name: "an admin session", headers: {}, user: users.admin, want: 401, challenge: /^Bearer realm="sluice"$/ },
+      { name: "an unknown token", headers: { authorization: `Bearer sgw_${"A".repeat(43)}` }, want: 401, challenge: /error="invalid_token"/ },
+      { name: "a revoked token", headers: { authorization: `Bearer ${g.revokedToken}` }, want: 401, challenge: /error="invalid_token"/ },
+      { name: "a token in another scheme", headers: { authorization: `Basic ${Buffer.from(`x:${g.token}`).toString("base64")}` }, want: 401, challenge: /error="invalid_token"/ },
+      { name: "the live token", headers: { authorization: `Bearer ${g.token}` }, want: "ok" },
+    ];
+    for (const { key, handler } of gatewayRoutes) {
+      for (const c of cases) {
+        const s = GATEWAY_SAMPLES[key](g);
+        const headers = { "x-forwarded-for": `203.0.113.${gatewayRoutes.indexOf(gatewayRoutes.find((r) => r.key === key)!) * 10 + cases.indexOf(c) + 1}`, ...c.headers };
+        const res = await handler(await request(key.split(" ")[0], s.path, { user: c.user ?? null, body: s.body, headers }), undefined);
+        const label = `${key} with ${c.name} → ${res.status}`;
+        if (c.want === "ok") expect(res.status, label).toBeLessThan(300);
+        else {
+          expect(res.status, label).toBe(c.want);
+          expect(res.headers.get("www-authenticate"), label).toMatch(c.challenge!);
+        }
+      }
+    }
   });
 
   it("answers every server action as the table says, for every role", async () => {

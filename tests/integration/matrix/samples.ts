@@ -53,6 +53,11 @@ export const gatewayBody = () => ({ name: `Matrix gateway ${u()}`, slug: `mgw-${
 type RouteSample = (fx: Fixture) => Promise<{ path: string; params?: Record<string, string>; body?: unknown; rawBody?: string; binaryBody?: ArrayBuffer }>;
 
 export const ROUTE_SAMPLES: Record<string, RouteSample> = {
+  // Console sessions never open the gateway API; the token cases are in GATEWAY_SAMPLES.
+  "GET /api/gateway/v1/bundle": async () => ({ path: "/api/gateway/v1/bundle" }),
+  "GET /api/gateway/v1/signing-key": async () => ({ path: "/api/gateway/v1/signing-key" }),
+  "PUT /api/gateway/v1/check-in": async () => ({ path: "/api/gateway/v1/check-in", body: {} }),
+  "GET /api/gateway/v1/openapi.json": async () => ({ path: "/api/gateway/v1/openapi.json" }),
   "GET /api/health": async () => ({ path: "/api/health" }),
   "GET /api/me": async () => ({ path: "/api/me" }),
   "GET /api/audit": async () => ({ path: "/api/audit?page=1" }),
@@ -188,6 +193,7 @@ export const ROUTE_SAMPLES: Record<string, RouteSample> = {
   "GET /api/sample-sets/[sampleSetId]/data": async (fx) => ({ path: "/", params: { sampleSetId: String((await createSampleSet(fx.site, fx.tag)).id) } }),
   "GET /api/sites/[site]/estimate": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
   "GET /api/estimates": async () => ({ path: "/api/estimates" }),
+  "GET /api/fleet": async (fx) => ({ path: `/api/fleet?site=${fx.site.slug}` }),
   "GET /api/sites/[site]/changes": async (fx) => ({ path: "/", params: { site: fx.site.slug } }),
   "POST /api/sites/[site]/changes": async () => {
     const { site } = await draftSite();
@@ -301,3 +307,31 @@ export const ACTION_SAMPLES: Record<string, (fx: Fixture) => Promise<unknown>> =
     tokenId: (await createGatewayToken(fx.gateway)).id,
   }),
 };
+
+/**
+ * For each gateway route, a request that a live token of a released gateway may make: the
+ * matrix sends it with no token, a console session, an unknown token, a revoked token and
+ * the live one.
+ */
+export const GATEWAY_SAMPLES: Record<string, (g: { gatewayId: number; release: number; digest: string }) => { path: string; body?: unknown }> = {
+  "GET /api/gateway/v1/bundle": () => ({ path: "/api/gateway/v1/bundle" }),
+  "GET /api/gateway/v1/signing-key": () => ({ path: "/api/gateway/v1/signing-key" }),
+  "PUT /api/gateway/v1/check-in": (g) => ({
+    path: "/api/gateway/v1/check-in",
+    body: { report: randomUUID(), release: g.release, digest: g.digest, status: "running", appliedAt: new Date().toISOString(), pointsIn: 10, pointsOut: 2, from: new Date(Date.now() - 60_000).toISOString(), to: new Date().toISOString() },
+  }),
+};
+
+/** A site with one release and a live token for its gateway. */
+export async function releasedGateway() {
+  const { site, gateway } = await releasedSite(1);
+  const { generateToken } = await import("@/lib/gateway/token");
+  const { GatewayToken, Gateway: GatewayModel, Bundle } = await import("@/models");
+  const live = generateToken();
+  const revoked = generateToken();
+  await GatewayToken.create({ gatewayId: gateway.id, tokenHash: live.hash, prefix: live.prefix, createdBy: null });
+  await GatewayToken.create({ gatewayId: gateway.id, tokenHash: revoked.hash, prefix: revoked.prefix, createdBy: null, revokedAt: new Date() });
+  const g = await GatewayModel.findByPk(gateway.id);
+  const bundle = await Bundle.findByPk(g!.currentBundleId!);
+  return { site, gateway, token: live.token, revokedToken: revoked.token, release: site.releaseCounter, digest: bundle!.digest, gatewayId: gateway.id };
+}
