@@ -1,7 +1,9 @@
 import Link from "next/link";
 import { DeleteGatewayButton } from "@/components/sites/delete-controls";
 import { GatewayForm } from "@/components/sites/gateway-form";
+import { GatewayTokens } from "@/components/sites/gateway-tokens";
 import { currentActor } from "@/lib/auth/guard";
+import { listGatewayTokens } from "@/lib/data/gateway-tokens";
 import { getGateway, getSite } from "@/lib/data/sites";
 import { can } from "@/lib/permissions";
 import { orNotFound } from "@/lib/site-page";
@@ -14,6 +16,7 @@ export default async function GatewayPage({ params }: Readonly<Props>) {
   const site = await orNotFound(getSite(actor, siteSlug));
   const gw = await orNotFound(getGateway(actor, siteSlug, gatewaySlug));
   const admin = !!actor && can(actor.role, "fleet.admin");
+  const tokens = admin ? await listGatewayTokens(actor, siteSlug, gatewaySlug) : [];
   return (
     <>
       <nav aria-label="Breadcrumb" className="mb-1 text-micro text-ink-faint">
@@ -39,6 +42,7 @@ export default async function GatewayPage({ params }: Readonly<Props>) {
             </h2>
             <GatewayForm site={site.slug} existing={{ name: gw.name, slug: gw.slug, description: gw.description, pollSeconds: gw.pollSeconds }} />
           </section>
+          <GatewayTokens site={site.slug} gateway={gw.slug} gatewayName={gw.name} tokens={tokens} />
           <section aria-labelledby="danger" className="rounded-panel border border-fault/40 bg-panel p-4">
             <h2 id="danger" className="text-lead font-medium text-fault">
               Delete this gateway

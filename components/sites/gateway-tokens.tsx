@@ -1,0 +1,192 @@
+"use client";
+
+import { zodResolver } from "@hookform/resolvers/zod";
+import { useRouter } from "next/navigation";
+import { useRef, useState } from "react";
+import { useForm } from "react-hook-form";
+import { toast } from "sonner";
+import { issueGatewayTokenAction, revokeGatewayTokenAction } from "@/app/(console)/sites/[site]/gateways/[gateway]/actions";
+import { when } from "@/components/review/change-status";
+import { Button } from "@/components/ui/button";
+import { ConfirmButton } from "@/components/ui/confirm-button";
+import { Field, inputClass } from "@/components/ui/field";
+import { showFailure } from "@/components/ui/form-error";
+import type { GatewayTokenView, IssuedToken } from "@/lib/data/gateway-tokens";
+import { issueTokenSchema, type IssueTokenInput, type IssueTokenValues } from "@/schemas/gateway-token";
+
+type Props = { site: string; gateway: string; gatewayName: string; tokens: GatewayTokenView[] };
+
+/** A gateway's bearer tokens for admins: issue (shown once), list by prefix, revoke. */
+export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<Props>) {
+  const router = useRouter();
+  const [issued, setIssued] = useState<IssuedToken | null>(null);
+  const { register, handleSubmit, setError, reset, formState } = useForm<IssueTokenInput, unknown, IssueTokenValues>({
+    resolver: zodResolver(issueTokenSchema),
+    defaultValues: { label: "" },
+  });
+  const onSubmit = handleSubmit(async (values) => {
+    const result = await issueGatewayTokenAction({ site, gateway, values });
+    if (!result.ok) return showFailure(result, setError, ["label"]);
+    setIssued(result.data);
+    reset();
+    toast.success(`Token ${result.data.prefix}… issued for ${gatewayName}.`);
+    router.refresh();
+  });
+  const live = tokens.filter((t) => t.state === "live").length;
+
+  return (
+    <section aria-labelledby="gateway-tokens" className="mb-8 rounded-panel border border-panel-line bg-panel p-4">
+      <h2 id="gateway-tokens" className="mb-1">
+        Tokens
+      </h2>
+      <p className="mb-3 max-w-3xl text-label text-ink-soft">
+        The gateway sends one of these as its bearer token when it pulls its bundle and checks in. Sluice keeps only a hash and the first characters
+        (the prefix), so a token can be told apart here but never shown again.
+      </p>
+      <p className="mb-4 max-w-3xl rounded-panel bg-panel-sunk px-3 py-2 text-label text-ink-soft">
+        <span className="font-medium text-ink">To rotate:</span> issue a new token, deploy it to the gateway, and once the new one shows a recent{" "}
+        <em>last used</em> time, revoke the old one. Until it is revoked the old token keeps working, so the gateway never goes without one.
+      </p>
+
+      {issued ? <IssuedTokenReveal issued={issued} onDone={() => setIssued(null)} /> : null}
+
+      <form onSubmit={onSubmit} noValidate className="mb-4 grid gap-3 sm:grid-cols-[minmax(0,24rem)_auto] sm:items-start">
+        <Field label="Token label" htmlFor="token-label" error={formState.errors.label?.message} hint="Optional: where it is deployed or why, e.g. “edge box, 2027 rotation”.">
+          <input id="token-label" className={inputClass} aria-invalid={!!formState.errors.label} {...register("label")} />
+        </Field>
+        <Button type="submit" className="sm:mt-6" disabled={formState.isSubmitting}>
+          {formState.isSubmitting ? "Issuing…" : "Issue token"}
+        </Button>
+      </form>
+
+      {tokens.length === 0 ? (
+        <p className="text-label text-ink-faint">No tokens yet: this gateway cannot pull its bundle until one is issued and deployed.</p>
+      ) : (
+        <>
+          <p className="mb-2 text-label text-ink-faint">
+            {live} live, {tokens.length - live} revoked
+          </p>
+          <div className="overflow-x-auto rounded-panel border border-panel-line">
+            <table aria-label={`Tokens of ${gatewayName}`} className="text-label">
+              <thead>
+                <tr>
+                  <th scope="col">Prefix</th>
+                  <th scope="col">Label</th>
+                  <th scope="col">State</th>
+                  <th scope="col">Issued</th>
+                  <th scope="col">Last used</th>
+                  <th scope="col">
+                    <span className="sr-only">Actions</span>
+                  </th>
+                </tr>
+              </thead>
+              <tbody>
+                {tokens.map((t) => (
+                  <tr key={t.id} data-testid={`token-${t.prefix}`}>
+                    <td className="whitespace-nowrap font-mono">{t.prefix}…</td>
+                    <td>{t.label || <span className="text-ink-faint">—</span>}</td>
+                    <td>
+                      {t.state === "live" ? (
+                        <span className="rounded bg-ok-soft px-1.5 py-0.5 text-micro font-medium text-ok">live</span>
+                      ) : (
+                        <>
+                          <span className="rounded bg-panel-sunk px-1.5 py-0.5 text-micro font-medium text-ink-soft">revoked</span>
+                          <span className="mt-1 block text-micro text-ink-faint">
+                            {when(t.revokedAt!)} by {t.revokedBy}
+                          </span>
+                        </>
+                      )}
+                    </td>
+                    <td className="whitespace-nowrap">
+                      {when(t.createdAt)}
+                      <span className="block text-micro text-ink-faint">by {t.createdBy}</span>
+                    </td>
+                    <td className="whitespace-nowrap">{t.lastUsedAt ? when(t.lastUsedAt) : <span className="text-ink-faint">never</span>}</td>
+                    <td className="text-right">
+                      {t.state === "live" ? <RevokeTokenButton site={site} gateway={gateway} gatewayName={gatewayName} token={t} lastLive={live === 1} /> : null}
+                    </td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          </div>
+        </>
+      )}
+    </section>
+  );
+}
+
+/** The new token in a read-only field with a copy button; it lives only in this page's memory. */
+function IssuedTokenReveal({ issued, onDone }: Readonly<{ issued: IssuedToken; onDone: () => void }>) {
+  const field = useRef<HTMLInputElement>(null);
+  const [copied, setCopied] = useState(false);
+  async function copy() {
+    try {
+      await navigator.clipboard.writeText(issued.token);
+      setCopied(true);
+    } catch {
+      // No clipboard access (a plain-http console, for one): leave it selected for Ctrl+C.
+      field.current?.select();
+      toast.message("The token is selected: press Ctrl+C (⌘C) to copy it.");
+    }
+  }
+  return (
+    <div role="status" className="mb-4 rounded-panel border border-caution bg-caution-soft p-4">
+      <label htmlFor="issued-token" className="text-label font-medium">
+        New token {issued.prefix}…{issued.label ? ` (${issued.label})` : ""}
+      </label>
+      <p className="mt-1 text-micro text-ink-soft">
+        <strong className="font-medium text-caution">Shown only now.</strong> Copy it into the gateway&apos;s configuration; Sluice keeps only a hash and cannot
+        show it again. If it is lost, issue another and revoke this one.
+      </p>
+      <div className="mt-2 flex flex-wrap items-center gap-2">
+        <input
+          ref={field}
+          id="issued-token"
+          data-testid="issued-token"
+          readOnly
+          value={issued.token}
+          spellCheck={false}
+          autoComplete="off"
+          onFocus={(e) => e.currentTarget.select()}
+          className={`${inputClass} min-w-0 flex-1 font-mono sm:min-w-[30rem]`}
+        />
+        <Button tone="quiet" onClick={copy}>
+          {copied ? "Copied" : "Copy"}
+        </Button>
+        <Button tone="quiet" onClick={onDone}>
+          Done
+        </Button>
+      </div>
+    </div>
+  );
+}
+
+type RevokeProps = { site: string; gateway: string; gatewayName: string; token: GatewayTokenView; lastLive: boolean };
+
+function RevokeTokenButton({ site, gateway, gatewayName, token, lastLive }: Readonly<RevokeProps>) {
+  const router = useRouter();
+  return (
+    <ConfirmButton
+      label="Revoke"
+      title={`Revoke token ${token.prefix}…?`}
+      confirmLabel="Revoke token"
+      onConfirm={async () => {
+        const result = await revokeGatewayTokenAction({ site, gateway, tokenId: token.id });
+        if (!result.ok) {
+          showFailure(result);
+          router.refresh();
+          return false;
+        }
+        toast.success(`Token ${token.prefix}… revoked.`);
+        router.refresh();
+        return true;
+      }}
+    >
+      {gatewayName} is refused with this token from its next request on. Revoking cannot be undone; the token stays listed as revoked.
+      {lastLive ? (
+        <strong className="mt-2 block font-medium text-fault">This is the gateway&apos;s last live token: it cannot pull its bundle until a new one is deployed.</strong>
+      ) : null}
+    </ConfirmButton>
+  );
+}
