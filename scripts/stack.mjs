@@ -503,8 +503,8 @@ async function bench() {
     code ||= run(bin("tsx"), ["bench/preview.ts"]);
     code ||= run(bin("tsx"), ["bench/bundles.ts"]);
   }
-  if (!only || only === "ui") {
-    ensureChromium();
+  if (!only || only === "ui" || only === "pull") {
+    if (only !== "pull") ensureChromium();
     tmpData = fs.mkdtempSync(path.join(os.tmpdir(), "sluice-bench-"));
     const secrets = readSecrets(tmpData);
     const port = await freePort(3327);
@@ -523,9 +523,16 @@ async function bench() {
     ensureBuild(env);
     const child = spawnChild(process.execPath, [nextBin(), "start", "-p", String(appPort), "-H", "127.0.0.1"], env);
     await waitForHttp(`http://127.0.0.1:${appPort}/sign-in`, child);
-    log("browser benchmarks");
-    code ||= run(bin("tsx"), ["bench/tag-table-scroll.ts"], { env: { ...env, SLUICE_E2E_URL: `http://127.0.0.1:${appPort}` } });
-    code ||= run(bin("tsx"), ["bench/workbench.ts"], { env: { ...env, SLUICE_E2E_URL: `http://127.0.0.1:${appPort}` } });
+    const benchEnv = { ...env, SLUICE_E2E_URL: `http://127.0.0.1:${appPort}` };
+    if (only !== "pull") {
+      log("browser benchmarks");
+      code ||= run(bin("tsx"), ["bench/tag-table-scroll.ts"], { env: benchEnv });
+      code ||= run(bin("tsx"), ["bench/workbench.ts"], { env: benchEnv });
+    }
+    if (!only || only === "pull") {
+      log("gateway pull benchmark");
+      code ||= run(bin("tsx"), ["bench/pull.ts"], { env: benchEnv });
+    }
   }
   await cleanup();
   process.exit(code);
