@@ -4,8 +4,11 @@ import { type Registry, RefusedError, sendReport } from "./registry";
 import type { Report, StateDir, StoredBundle } from "./state";
 import type { SyncOutcome } from "./sync";
 
-/** At most this many unknown tags go into one report. */
+/** At most this many unknown tags go into one report, each a plausible tag name (the registry refuses longer ones). */
 const MAX_UNKNOWN_TAGS = 1000;
+const MAX_TAG_LENGTH = 255;
+/** The registry keeps messages up to this length. */
+const MAX_MESSAGE = 2000;
 
 export type Counters = { pointsIn: number; pointsOut: number; unknownTags: string[] };
 
@@ -16,20 +19,24 @@ export type Counters = { pointsIn: number; pointsOut: number; unknownTags: strin
  * when there is nothing to name (no bundle in force and none refused).
  */
 export function makeReport(outcome: SyncOutcome | null, inForce: StoredBundle | null, counters: Counters, from: string, to: string): Report | null {
+  const unknownTags = counters.unknownTags.filter((t) => t.length <= MAX_TAG_LENGTH).slice(0, MAX_UNKNOWN_TAGS);
   const base = {
     report: randomUUID(),
     pointsIn: counters.pointsIn,
     pointsOut: counters.pointsOut,
-    from,
+    // A clock set back must not give a span the registry refuses.
+    from: Date.parse(from) <= Date.parse(to) ? from : to,
     to,
-    ...(counters.unknownTags.length > 0 ? { unknownTags: counters.unknownTags.slice(0, MAX_UNKNOWN_TAGS) } : {}),
+    ...(unknownTags.length > 0 ? { unknownTags } : {}),
   };
-  if (outcome?.kind === "failed" || (outcome?.kind === "refused" && outcome.release !== null && outcome.digest !== null)) {
-    return { ...base, release: outcome.release!, digest: outcome.digest!, status: "failed", appliedAt: to, message: outcome.message };
+  const said = (m: string | undefined) => (m ? { message: m.slice(0, MAX_MESSAGE) } : {});
+  const refusedRelease = outcome?.kind === "refused" && outcome.release !== null && outcome.release >= 1 && outcome.digest !== null;
+  if (outcome?.kind === "failed" || refusedRelease) {
+    return { ...base, release: outcome.release!, digest: outcome.digest!, status: "failed", appliedAt: to, ...said(outcome.message) };
   }
   if (inForce === null) return null;
   const message = outcome?.kind === "refused" ? outcome.message : outcome?.kind === "unchanged" ? outcome.problem : undefined;
-  return { ...base, release: inForce.release, digest: inForce.digest, status: "running", appliedAt: inForce.appliedAt, ...(message ? { message } : {}) };
+  return { ...base, release: inForce.release, digest: inForce.digest, status: "running", appliedAt: inForce.appliedAt, ...said(message) };
 }
 
 /**

@@ -102,8 +102,8 @@ export async function syncOnce(ctx: SyncContext): Promise<SyncOutcome> {
     await withKeyRefresh(ctx, () => verifyFreshness(answer.freshness, ctx.keys, { ...verified.bundle, digest: verified.digest }, ctx.now(), ctx.skewS));
   } catch (e) {
     if (!(e instanceof VerificationError)) throw e;
-    const release = Number.parseInt(answer.release ?? "", 10);
-    return { kind: "refused", message: `refused the bundle: ${e.message}`, release: Number.isFinite(release) ? release : null, digest: digestHex(answer.body), fresh: false };
+    const release = /^\d{1,9}$/.test(answer.release?.trim() ?? "") ? Number(answer.release) : null;
+    return { kind: "refused", message: `refused the bundle: ${e.message}`, release, digest: digestHex(answer.body), fresh: false };
   }
   if (cur && verified.digest === cur.digest) return { kind: "unchanged", fresh: true };
   const { bundle, digest } = verified;
