@@ -50,7 +50,7 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
 
       {issued ? <IssuedTokenReveal issued={issued} onDone={() => setIssued(null)} /> : null}
 
-      <form onSubmit={onSubmit} noValidate className="mb-4 grid gap-3 sm:grid-cols-[minmax(0,24rem)_auto] sm:items-start">
+      <form onSubmit={onSubmit} noValidate className="mb-4 grid gap-3 sm:grid-cols-[minmax(0,24rem)_auto] sm:items-start sm:justify-start">
         <Field label="Token label" htmlFor="token-label" error={formState.errors.label?.message} hint="Optional: where it is deployed or why, e.g. “edge box, 2027 rotation”.">
           <input id="token-label" className={inputClass} aria-invalid={!!formState.errors.label} {...register("label")} />
         </Field>
