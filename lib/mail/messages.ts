@@ -119,3 +119,62 @@ export function rolledBackMail(d: RolledBackMail): BuiltMail {
     ),
   };
 }
+
+// Gateway alerts (DESIGN.md "E-mail for … gateways failing or stale"), one message per site and kind.
+
+export type GatewayAlertRef = {
+  slug: string;
+  name: string;
+  /** The release it last said it runs (its last good bundle), if any. */
+  runningRelease: number | null;
+  /** The release its bundle pull serves now, if any. */
+  targetRelease: number | null;
+  lastCheckInAt: Date;
+  pollSeconds: number;
+  /** The failed report's message. */
+  message?: string | null;
+};
+export type GatewayAlertMail = { site: SiteRef; gateways: GatewayAlertRef[]; url?: string };
+
+const utc = (d: Date) => d.toISOString().replace("T", " ").replace(/\.\d{3}Z$/, " UTC");
+const fleetUrl = (d: GatewayAlertMail, state: string) => d.url ?? consoleUrl(`/fleet?site=${encodeURIComponent(d.site.slug)}&state=${state}`);
+const gatewayLabel = (g: GatewayAlertRef) => `${oneLine(g.name)} (${g.slug})`;
+const alertSubject = (d: GatewayAlertMail, what: string) =>
+  subject(d.gateways.length === 1 ? `Gateway ${what}: ${d.gateways[0].slug} at ${d.site.name}` : `${d.gateways.length} gateways ${what} at ${d.site.name}`);
+const runs = (g: GatewayAlertRef) => (g.runningRelease === null ? "It has not reported running any release." : `It last reported running release ${g.runningRelease}.`);
+
+/** Gateways reported that they could not apply their bundle. */
+export function gatewaysFailingMail(d: GatewayAlertMail): BuiltMail {
+  return {
+    subject: alertSubject(d, "failing"),
+    text: body(
+      `${d.gateways.length === 1 ? "A gateway" : `${d.gateways.length} gateways`} at ${siteLabel(d.site)} reported a failure:`,
+      ...d.gateways.map((g) =>
+        [
+          `${gatewayLabel(g)}, report of ${utc(g.lastCheckInAt)}${g.targetRelease !== null ? `, target release ${g.targetRelease}` : ""}.`,
+          g.message?.trim() ? `Its message:\n${quoted(g.message)}` : "It gave no message.",
+          runs(g),
+        ].join("\n"),
+      ),
+      "A failing gateway may still be forwarding with its last good bundle. Reduction is lossy: keep the raw record wherever local regulations and licensed practice require it.",
+      `See the fleet status:\n${fleetUrl(d, "failing")}`,
+      "You get one message per failure; the next comes after the gateway has checked in well again.",
+    ),
+  };
+}
+
+/** Gateways stopped checking in for three poll intervals. */
+export function gatewaysStaleMail(d: GatewayAlertMail): BuiltMail {
+  return {
+    subject: alertSubject(d, "stale"),
+    text: body(
+      `${d.gateways.length === 1 ? "A gateway" : `${d.gateways.length} gateways`} at ${siteLabel(d.site)} stopped checking in:`,
+      ...d.gateways.map((g) =>
+        [`${gatewayLabel(g)}: last check-in ${utc(g.lastCheckInAt)}; it polls every ${g.pollSeconds} s and is stale after three missed polls.`, runs(g)].join("\n"),
+      ),
+      "A stale gateway may be offline, cut off from Sluice, or stopped. While it cannot reach Sluice it keeps reducing and buffering with the bundle it last applied.",
+      `See the fleet status:\n${fleetUrl(d, "stale")}`,
+      "You get one message per silence; the next comes after the gateway has checked in again.",
+    ),
+  };
+}
