@@ -2,6 +2,8 @@ import "server-only";
 import { NextResponse } from "next/server";
 import { ConnectionError, DatabaseError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError as SequelizeValidationError } from "sequelize";
 import { ZodError } from "zod";
+import { env } from "@/lib/env";
+import { checkCrossSite } from "@/lib/security/origin";
 
 /** An error that knows its HTTP status and, for bad input, the field at fault. */
 export class HttpError extends Error {
@@ -82,10 +84,17 @@ export function errorResponse(err: unknown): NextResponse {
   return NextResponse.json(body, { status, headers });
 }
 
-/** Wraps a route handler so every failure becomes a JSON error with the right status. */
+/**
+ * Wraps a route handler so every failure becomes a JSON error with the right status, and
+ * refuses cross-site state changes (403, field "origin") before the handler runs. The
+ * check lives here rather than in proxy.ts: every API handler passes through route(), the
+ * proxy does not run on the API (the gateway's hot path), and it is not a boundary.
+ */
 export function route<Ctx>(fn: (req: Request, ctx: Ctx) => Promise<Response>) {
   return async (req: Request, ctx: Ctx): Promise<Response> => {
     try {
+      const verdict = checkCrossSite(req, env().NEXTAUTH_URL);
+      if (!verdict.ok) throw new HttpError(403, verdict.reason, "origin");
       return await fn(req, ctx);
     } catch (err) {
       return errorResponse(err);

@@ -12,9 +12,20 @@ function clientAddress(headers: Record<string, unknown> | undefined): string {
   return first || "unknown";
 }
 
+// Secure cookies (and the __Secure- name, which lib/auth/session.ts and proxy.ts also read)
+// exactly when the console's address is https; HttpOnly and SameSite=Lax always.
+const secureCookies = env().NEXTAUTH_URL?.startsWith("https://") ?? false;
+
 export const authOptions: NextAuthOptions = {
   secret: env().NEXTAUTH_SECRET,
   session: { strategy: "jwt", maxAge: 12 * 60 * 60 },
+  useSecureCookies: secureCookies,
+  cookies: {
+    sessionToken: {
+      name: `${secureCookies ? "__Secure-" : ""}next-auth.session-token`,
+      options: { httpOnly: true, sameSite: "lax", path: "/", secure: secureCookies },
+    },
+  },
   pages: { signIn: "/sign-in" },
   providers: [
     CredentialsProvider({
