@@ -102,18 +102,52 @@ export function route<Ctx>(fn: (req: Request, ctx: Ctx) => Promise<Response>) {
   };
 }
 
-/** Reads a JSON body, refusing a body that is not JSON with 400. */
+/** Reads a JSON body, refusing a body that is not JSON with 400 and text that is not Unicode with 422. */
 export async function readJson(req: Request): Promise<unknown> {
+  let body: unknown;
   try {
-    return await req.json();
+    body = await req.json();
   } catch {
     throw new HttpError(400, "the request body must be JSON", "body");
+  }
+  assertWellFormedText(body);
+  return body;
+}
+
+// JSON can spell an unpaired UTF-16 surrogate ("\ud800"), but it is no Unicode character:
+// the driver would store it as U+FFFD and a JSON column (the audit log) refuses it.
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** Refuses (422, naming the field) a parsed JSON value whose keys or strings hold a lone surrogate. */
+export function assertWellFormedText(value: unknown): void {
+  type Node = { v: unknown; key?: string | number; up?: Node };
+  const stack: Node[] = [{ v: value }];
+  const fail = (node: Node) => {
+    const path: (string | number)[] = [];
+    for (let n: Node | undefined = node; n?.key !== undefined; n = n.up) path.unshift(n.key);
+    const field = path.join(".") || "body";
+    return new HttpError(422, `${field}: the text is not valid Unicode (it holds a lone surrogate)`, field);
+  };
+  while (stack.length > 0) {
+    const node = stack.pop()!;
+    if (typeof node.v === "string") {
+      if (LONE_SURROGATE.test(node.v)) throw fail(node);
+    } else if (node.v !== null && typeof node.v === "object") {
+      const entries = Object.entries(node.v);
+      for (let i = entries.length - 1; i >= 0; i--) {
+        const [k, v] = entries[i];
+        const child: Node = { v, key: Array.isArray(node.v) ? Number(k) : k, up: node };
+        if (LONE_SURROGATE.test(k)) throw fail(child);
+        stack.push(child);
+      }
+    }
   }
 }
 
 /**
  * Reads a JSON body of at most `limit` bytes: 413 when Content-Length says more or the
- * stream runs past the limit (read no further), 400 when it is not JSON.
+ * stream runs past the limit (read no further), 400 when it is not JSON, 422 when its
+ * text is not Unicode.
  */
 export async function readJsonLimited(req: Request, limit: number): Promise<unknown> {
   const declared = req.headers.get("content-length");
@@ -133,11 +167,14 @@ export async function readJsonLimited(req: Request, limit: number): Promise<unkn
       chunks.push(value);
     }
   }
+  let body: unknown;
   try {
-    return JSON.parse(Buffer.concat(chunks).toString("utf8"));
+    body = JSON.parse(Buffer.concat(chunks).toString("utf8"));
   } catch {
     throw new HttpError(400, "the request body must be JSON", "body");
   }
+  assertWellFormedText(body);
+  return body;
 }
 
 const tooLarge = (limit: number) => new HttpError(413, `the request body is larger than ${Math.round(limit / 1024)} KiB`, "body");

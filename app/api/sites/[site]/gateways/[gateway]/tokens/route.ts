@@ -1,7 +1,7 @@
 import { NextResponse } from "next/server";
 import { authorize } from "@/lib/auth/guard";
 import { createGatewayToken, listGatewayTokens } from "@/lib/data/gateway-tokens";
-import { HttpError, route } from "@/lib/http";
+import { HttpError, assertWellFormedText, route } from "@/lib/http";
 import type { IssueTokenInput } from "@/schemas/gateway-token";
 
 type Ctx = { params: Promise<{ site: string; gateway: string }> };
@@ -25,9 +25,12 @@ export const POST = route<Ctx>(async (req, { params }) => {
 async function optionalJson(req: Request): Promise<IssueTokenInput> {
   const text = await req.text();
   if (text.trim() === "") return {};
+  let body: unknown;
   try {
-    return JSON.parse(text) as IssueTokenInput;
+    body = JSON.parse(text);
   } catch {
     throw new HttpError(400, "the request body must be JSON", "body");
   }
+  assertWellFormedText(body);
+  return body as IssueTokenInput;
 }
