@@ -23,7 +23,10 @@ function isTimeZone(tz: string) {
   }
 }
 
-const number = (label: string) => z.coerce.number({ message: `${label} must be a number.` }).refine(Number.isFinite, `${label} must be a number.`);
+// Form fields send numbers as text, JSON sends numbers: only text is converted, so that
+// null, true, "" or [] are refused instead of being read as 0 or 1.
+const number = (label: string) =>
+  z.preprocess((v) => (typeof v === "string" && v.trim() !== "" ? Number(v) : v), z.number({ message: `${label} must be a number.` }));
 
 // Tags in no group: pass through or drop; "a chosen profile" arrives with reduction profiles.
 export const DEFAULT_HANDLINGS = ["pass-through", "drop"] as const;
