@@ -35,7 +35,8 @@ export const siteSchema = z.object({
   name: z.string().trim().min(1, "Enter a name.").max(120, "At most 120 characters."),
   slug,
   timeZone: z.string().refine(isTimeZone, "Choose a time zone from the IANA list (e.g. Europe/London)."),
-  uplinkBudgetKbps: number("Uplink budget").pipe(z.number().gt(0, "Uplink budget must be above 0 kbit/s.").max(1e9)),
+  // The column holds three decimals below a billion (DECIMAL(12,3)).
+  uplinkBudgetKbps: number("Uplink budget").pipe(z.number().min(0.001, "Uplink budget is at least 0.001 kbit/s.").max(999_999_999, "At most 999,999,999 kbit/s.")),
   storagePricePerGbMonth: number("Storage price").pipe(z.number().min(0, "Storage price cannot be negative.").max(1e6)),
   retentionMonths: number("Retention").pipe(z.number().int("Retention is a whole number of months.").min(1, "At least 1 month.").max(1200)),
   defaultHandling: z.enum(DEFAULT_HANDLINGS, { message: "Choose pass-through or drop." }),
