@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { NAME_CONTROL_MESSAGE, TEXT_CONTROL_MESSAGE, noControlInName, noControlInText } from "./text";
 
 export const SLUG_PATTERN = /^[a-z0-9](?:[a-z0-9-]{0,62}[a-z0-9])?$/;
 const slug = z
@@ -32,7 +33,7 @@ const number = (label: string) =>
 export const DEFAULT_HANDLINGS = ["pass-through", "drop"] as const;
 
 export const siteSchema = z.object({
-  name: z.string().trim().min(1, "Enter a name.").max(120, "At most 120 characters."),
+  name: z.string().trim().min(1, "Enter a name.").max(120, "At most 120 characters.").refine(noControlInName, NAME_CONTROL_MESSAGE),
   slug,
   timeZone: z.string().refine(isTimeZone, "Choose a time zone from the IANA list (e.g. Europe/London)."),
   // The column holds three decimals below a billion (DECIMAL(12,3)).
@@ -48,9 +49,9 @@ export type SiteInput = z.input<typeof siteSchema>;
 export type SiteValues = z.output<typeof siteSchema>;
 
 export const gatewaySchema = z.object({
-  name: z.string().trim().min(1, "Enter a name.").max(120, "At most 120 characters."),
+  name: z.string().trim().min(1, "Enter a name.").max(120, "At most 120 characters.").refine(noControlInName, NAME_CONTROL_MESSAGE),
   slug,
-  description: z.string().trim().max(500, "At most 500 characters.").default(""),
+  description: z.string().trim().max(500, "At most 500 characters.").refine(noControlInText, TEXT_CONTROL_MESSAGE).default(""),
   pollSeconds: number("Poll interval").pipe(
     z.number().int("Poll interval is a whole number of seconds.").min(5, "At least 5 s.").max(86400, "At most 86,400 s (a day)."),
   ),
