@@ -5,6 +5,7 @@ import { SideNav } from "@/components/shell/side-nav";
 import { SignOutButton } from "@/components/shell/sign-out-button";
 import { SiteSwitcher } from "@/components/shell/site-switcher";
 import { currentActor } from "@/lib/auth/guard";
+import { fleetAlertCount } from "@/lib/data/fleet";
 import { listSites } from "@/lib/data/sites";
 
 export const dynamic = "force-dynamic";
@@ -12,7 +13,8 @@ export const dynamic = "force-dynamic";
 export default async function ConsoleLayout({ children }: Readonly<{ children: React.ReactNode }>) {
   const actor = await currentActor();
   if (!actor) redirect("/sign-in");
-  const sites = await listSites(actor);
+  const [sites, alerts] = await Promise.all([listSites(actor), fleetAlertCount(actor)]);
+  const badges = alerts > 0 ? { "/fleet": { count: alerts, label: `${alerts} ${alerts === 1 ? "gateway" : "gateways"} stale or failing` } } : undefined;
   return (
     <div className="min-h-screen md:grid md:grid-cols-[13rem_1fr]">
       <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:m-2 focus:bg-panel focus:p-2">
@@ -22,7 +24,7 @@ export default async function ConsoleLayout({ children }: Readonly<{ children: R
         <Link href="/" className="mb-2 block px-3 text-title font-bold text-white md:mb-6">
           Sluice
         </Link>
-        <SideNav items={navFor(actor.role)} />
+        <SideNav items={navFor(actor.role)} badges={badges} />
       </aside>
       <div className="flex min-w-0 flex-col">
         <div className="flex flex-wrap items-center justify-between gap-3 border-b border-panel-line bg-panel px-4 py-2">

@@ -6,6 +6,7 @@ export type NavItem = { href: string; label: string; needs: Permission };
 export const NAV_ITEMS: NavItem[] = [
   { href: "/", label: "Overview", needs: "read" },
   { href: "/sites", label: "Sites", needs: "read" },
+  { href: "/fleet", label: "Fleet", needs: "read" },
   { href: "/profiles", label: "Profiles", needs: "read" },
   { href: "/workbench", label: "Workbench", needs: "read" },
   { href: "/estimates", label: "Uplink and storage", needs: "read" },

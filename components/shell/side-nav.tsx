@@ -4,7 +4,10 @@ import Link from "next/link";
 import { usePathname } from "next/navigation";
 import type { NavItem } from "./nav-items";
 
-export function SideNav({ items }: Readonly<{ items: NavItem[] }>) {
+/** A count shown on a nav entry, with the words a screen reader says for it. */
+export type NavBadge = { count: number; label: string };
+
+export function SideNav({ items, badges = {} }: Readonly<{ items: NavItem[]; badges?: Record<string, NavBadge> }>) {
   const pathname = usePathname();
   return (
     <nav aria-label="Console sections">
@@ -21,6 +24,14 @@ export function SideNav({ items }: Readonly<{ items: NavItem[] }>) {
                 }`}
               >
                 {item.label}
+                {badges[item.href] ? (
+                  <>
+                    <span aria-hidden className="ml-2 rounded-full bg-fault px-1.5 py-0.5 text-micro font-medium text-white" data-testid={`nav-badge-${item.href}`}>
+                      {badges[item.href].count}
+                    </span>
+                    <span className="sr-only">, {badges[item.href].label}</span>
+                  </>
+                ) : null}
               </Link>
             </li>
           );

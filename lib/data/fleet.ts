@@ -74,7 +74,10 @@ export async function fleetStatus(actor: Actor | null, filters: { site?: string;
   const sites = await Site.findAll({ where: siteSlug ? { slug: siteSlug } : {}, order: [["name", "ASC"]] });
   if (siteSlug && sites.length === 0) throw new HttpError(422, `no site with slug "${siteSlug}"`, "site");
   const siteIds = sites.map((s) => s.id);
+  // By site (as the roll-up), then by gateway name.
+  const siteOrder = new Map(siteIds.map((id, i) => [id, i]));
   const gateways = siteIds.length ? await Gateway.findAll({ where: { siteId: siteIds }, order: [["name", "ASC"], ["slug", "ASC"]] }) : [];
+  gateways.sort((a, b) => siteOrder.get(a.siteId)! - siteOrder.get(b.siteId)!);
   const ids = gateways.map((g) => g.id);
   const bundleIds = [...new Set(gateways.flatMap((g) => (g.currentBundleId ? [g.currentBundleId] : [])))];
 
