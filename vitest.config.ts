@@ -35,6 +35,18 @@ export default defineConfig({
           hookTimeout: 120_000,
         },
       },
+      {
+        resolve: { alias },
+        test: {
+          name: "system",
+          environment: "node",
+          include: ["tests/system/**/*.test.ts"],
+          setupFiles: ["tests/integration/setup.ts"],
+          fileParallelism: false,
+          testTimeout: 120_000,
+          hookTimeout: 120_000,
+        },
+      },
     ],
   },
 });

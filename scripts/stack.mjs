@@ -192,6 +192,7 @@ async function startDatabase({ dataDir, port, databases, password }) {
     ];
     if (mode === "test") args.push("--innodb-flush-log-at-trx-commit=0", "--innodb-doublewrite=0", "--sync-binlog=0");
     if (isRoot) args.push("--user=root");
+    fs.writeFileSync(path.join(dataDir, "mariadb.args.json"), JSON.stringify({ binary: findBinary("mariadbd"), args, port, pidFile }));
     proc = spawn(findBinary("mariadbd"), args, { cwd: root, stdio: "ignore" });
     let exited = null;
     proc.once("exit", (code) => (exited = code ?? -1));
@@ -418,7 +419,7 @@ async function serve(dev) {
 
 function vitestRun(project, env, reportFile) {
   // Words after the project names narrow the run to test files whose path contains them.
-  const filters = parts.filter((p) => !["unit", "integration", "e2e"].includes(p));
+  const filters = parts.filter((p) => !["unit", "integration", "e2e", "system"].includes(p));
   const args = ["run", "--project", project, "--reporter=default", "--reporter=json", `--outputFile.json=${reportFile}`, ...filters];
   return run(bin("vitest"), args, { env });
 }
@@ -436,7 +437,8 @@ function readCounts(file) {
 
 async function test() {
   const started = Date.now();
-  const want = parts.length ? parts : ["unit", "integration", "e2e"];
+  const projects = ["unit", "integration", "e2e", "system"];
+  const want = parts.some((p) => projects.includes(p)) ? parts : [...projects, ...parts];
   ensureNodeModules();
   tmpData = fs.mkdtempSync(path.join(os.tmpdir(), "sluice-test-"));
   const secrets = readSecrets(tmpData);
@@ -453,7 +455,7 @@ async function test() {
     vitestRun("unit", env, path.join(tmpData, "unit.json"));
     results.push(["unit", readCounts(path.join(tmpData, "unit.json"))]);
   }
-  if (want.includes("integration") || want.includes("e2e")) {
+  if (want.includes("integration") || want.includes("e2e") || want.includes("system")) {
     const port = await freePort(Number(process.env.SLUICE_TEST_DB_PORT ?? 3317));
     db = await startDatabase({ dataDir: tmpData, port, databases: ["sluice_test", "sluice_migrations"], password: secrets.dbPassword });
     env.DATABASE_URL = dbUrl(port, "sluice_test", secrets.dbPassword);
@@ -478,6 +480,10 @@ async function test() {
     vitestRun("e2e", { ...env, SLUICE_E2E_URL: `http://127.0.0.1:${appPort}` }, path.join(tmpData, "e2e.json"));
     results.push(["e2e", readCounts(path.join(tmpData, "e2e.json"))]);
   }
+  if (want.includes("system")) {
+    log("system tests (two app instances, database faults)");
+    results.push(["system", await systemTests(env)]);
+  }
   await cleanup();
   let passed = 0;
   let failed = 0;
@@ -489,6 +495,51 @@ async function test() {
   log(`npm test took ${((Date.now() - started) / 1000).toFixed(0)} s`);
   process.stdout.write(`tests: ${passed} passed, ${failed} failed\n`);
   process.exit(failed > 0 || passed === 0 ? 1 : 0);
+}
+
+/**
+ * The system phase: a MariaDB of its own (the tests stop and restart it), the demo seed,
+ * and two instances of the production build on different ports, given the same session
+ * secret and signing keys through configuration and separate data directories.
+ */
+async function systemTests(baseEnv) {
+  const dir = path.join(tmpData, "system");
+  fs.mkdirSync(dir, { recursive: true });
+  const secrets = readSecrets(dir);
+  const port = await freePort(0);
+  const sysDb = await startDatabase({ dataDir: dir, port, databases: ["sluice_system"], password: secrets.dbPassword });
+  const { generateKeyPairSync } = await import("node:crypto");
+  const pair = generateKeyPairSync("ed25519", { privateKeyEncoding: { type: "pkcs8", format: "pem" }, publicKeyEncoding: { type: "spki", format: "pem" } });
+  const env = {
+    ...baseEnv,
+    DATABASE_URL: dbUrl(port, "sluice_system", secrets.dbPassword),
+    NEXTAUTH_SECRET: secrets.sessionSecret,
+    SLUICE_SIGNING_KEYS: JSON.stringify({ active: "sys1", keys: [{ id: "sys1", privateKeyPem: pair.privateKey, publicKeyPem: pair.publicKey }] }),
+  };
+  migrateAndSeed(env);
+  const urls = [];
+  const instances = [];
+  ensureBuild({ ...env, NODE_ENV: "production" });
+  for (const name of ["a", "b"]) {
+    const appPort = await freePort(0);
+    const dataDir = path.join(dir, `instance-${name}`);
+    fs.mkdirSync(dataDir, { recursive: true });
+    const appEnv = { ...env, NODE_ENV: "production", NEXTAUTH_URL: `http://127.0.0.1:${appPort}`, SLUICE_DATA_DIR: dataDir };
+    instances.push(spawnChild(process.execPath, [nextBin(), "start", "-p", String(appPort), "-H", "127.0.0.1"], appEnv));
+    urls.push(`http://127.0.0.1:${appPort}`);
+  }
+  for (const [i, url] of urls.entries()) await waitForHttp(`${url}/sign-in`, instances[i]);
+  const report = path.join(tmpData, "system.json");
+  vitestRun("system", { ...env, SLUICE_SYSTEM_URLS: urls.join(","), SLUICE_SYSTEM_DB: path.join(dir, "mariadb.args.json") }, report);
+  for (const child of instances) child.kill("SIGTERM");
+  // The tests may have restarted MariaDB themselves: stop whichever server holds the pid file now.
+  await stopDatabase(sysDb);
+  try {
+    const pid = Number(fs.readFileSync(path.join(dir, "mariadb.pid"), "utf8").trim());
+    if (pid) process.kill(pid, "SIGTERM");
+    await sleep(1500);
+  } catch {}
+  return readCounts(report);
 }
 
 /** Benchmarks: the computation (no services), then the browser ones on a throwaway stack. */
