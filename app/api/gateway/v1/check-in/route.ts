@@ -1,4 +1,5 @@
 import { CHECK_IN_LIMIT_BYTES, recordCheckIn } from "@/lib/data/check-in";
+import { sweepGatewayAlerts } from "@/lib/data/fleet-alerts";
 import { authenticateGateway } from "@/lib/data/gateway-auth";
 import { readJsonLimited, route } from "@/lib/http";
 
@@ -8,6 +9,10 @@ export const dynamic = "force-dynamic";
 export const PUT = route(async (req: Request) => {
   const pull = await authenticateGateway(req);
   const body = await readJsonLimited(req, CHECK_IN_LIMIT_BYTES);
-  await recordCheckIn(pull, body);
+  const result = await recordCheckIn(pull, body);
+  // A new failure is mailed now rather than at the next timed sweep (the sweep mails each episode once).
+  if (result.stored && result.status === "failed") {
+    void sweepGatewayAlerts().catch((err: unknown) => console.error("gateway alert sweep failed:", (err as Error).message));
+  }
   return new Response(null, { status: 204 });
 });
