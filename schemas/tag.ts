@@ -1,6 +1,7 @@
 import { z } from "zod";
 import { patternProblem } from "@/lib/tags/selector";
 import { SLUG_PATTERN } from "@/schemas/site";
+import { TEXT_CONTROL_MESSAGE, noControlInText } from "@/schemas/text";
 
 /** Tag kinds (DESIGN.md "Tag", "Signals"): analog values, discrete states, counters (totalisers). */
 export const TAG_KINDS = ["analog", "discrete", "counter"] as const;
@@ -48,6 +49,7 @@ const hierarchyLevel = (label: string) =>
     .string({ error: `${label} is text.` })
     .trim()
     .max(64, `${label} has at most 64 characters.`)
+    .refine(noControlInText, `${label} cannot contain control characters other than tabs and line breaks.`)
     .nullish()
     .transform((v) => (v ? v : null));
 
@@ -109,12 +111,14 @@ const pattern = z
     if (problem) ctx.addIssue({ code: "custom", message: problem });
   });
 
-const text = (label: string, max: number) =>
+/** A filter value; `multiLine` where the tag field it matches may hold line breaks (area, equipment). */
+const text = (label: string, max: number, multiLine = false) =>
   z
     .string({ error: `${label} is text.` })
     .trim()
     .min(1, `Remove the empty ${label.toLowerCase()} entry.`)
-    .max(max, `${label} has at most ${max} characters.`);
+    .max(max, `${label} has at most ${max} characters.`)
+    .refine(multiLine ? noControlInText : (s) => !CONTROL_CHARS.test(s), `${label} cannot contain control characters${multiLine ? " other than tabs and line breaks" : ""}.`);
 
 /**
  * A tag group's selector (DESIGN.md "Tag group"). Lists are trimmed and de-duplicated
@@ -126,8 +130,8 @@ export const selectorSchema = z
     patterns: list(pattern),
     units: list(text("Unit", 32)),
     kinds: list(kind),
-    areas: list(text("Area", 64)),
-    equipment: list(text("Equipment", 64)),
+    areas: list(text("Area", 64, true)),
+    equipment: list(text("Equipment", 64, true)),
     gateways: list(gatewaySlug),
     minPeriodMs: period,
     maxPeriodMs: period,
@@ -165,7 +169,7 @@ export const groupSchema = z.object({
     .min(1, "Enter a name.")
     .max(80, "A group name has at most 80 characters.")
     .refine((s) => !CONTROL_CHARS.test(s), "A group name cannot contain control characters."),
-  description: z.string().trim().max(500, "At most 500 characters.").default(""),
+  description: z.string().trim().max(500, "At most 500 characters.").refine(noControlInText, TEXT_CONTROL_MESSAGE).default(""),
   /** Flags the group as a regulated record (DESIGN.md "Cautions shown to users"). */
   regulated: z.boolean({ error: "regulated must be true or false." }).default(false),
   selector: selectorSchema.prefault({}),
