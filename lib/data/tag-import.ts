@@ -37,7 +37,7 @@ function validateRows(rows: unknown[], gateways: Set<string>): TagValues[] {
   rows.forEach((raw, i) => {
     const parsed = tagSchema.safeParse(raw);
     if (!parsed.success) {
-      for (const issue of parsed.error.issues) issues.push({ field: `rows.${i}.${issue.path.join(".")}`, message: issue.message });
+      for (const issue of parsed.error.issues) issues.push({ field: ["rows", i, ...issue.path].join("."), message: issue.message });
       return;
     }
     const v = parsed.data;
