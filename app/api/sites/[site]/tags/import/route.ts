@@ -18,9 +18,10 @@ export const POST = route<Ctx>(async (req, { params }) => {
   const declared = Number(req.headers.get("content-length") ?? 0);
   if (declared > MAX_BODY * 3) throw new HttpError(413, "the request body is too large", "body");
   if ((req.headers.get("content-type") ?? "").startsWith("text/csv")) {
-    const text = await req.text();
-    const sizeError = checkCsvSize(Buffer.byteLength(text));
+    const bytes = await req.arrayBuffer();
+    const sizeError = checkCsvSize(bytes.byteLength);
     if (sizeError) throw new HttpError(413, sizeError, "file");
+    const text = utf8(bytes);
     const site = await siteBySlug(slug);
     const gateways = (await Gateway.findAll({ where: { siteId: site.id }, attributes: ["slug"] })).map((g) => g.slug);
     const parsed = parseTagCsv(text, { gateways });
@@ -38,3 +39,12 @@ export const POST = route<Ctx>(async (req, { params }) => {
   }
   return NextResponse.json(await importTags(actor, slug, await readJson(req)));
 });
+
+/** The file as text; bytes that are not UTF-8 (a Windows-1252 "°C") are refused, not replaced by U+FFFD. */
+function utf8(bytes: ArrayBuffer): string {
+  try {
+    return new TextDecoder("utf-8", { fatal: true }).decode(bytes);
+  } catch {
+    throw new HttpError(422, "The file is not UTF-8 text; save it as CSV UTF-8 and import it again.", "file");
+  }
+}
