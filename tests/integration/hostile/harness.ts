@@ -258,6 +258,8 @@ export type Field = {
   reportedAs?: string | RegExp;
   /** Skip the round-trip check (the route does not give the value back). */
   noReadBack?: boolean;
+  /** Legal text may still be refused (a glob pattern with odd syntax); when accepted it is stored exactly. */
+  mayRefuse?: boolean;
 };
 
 export type Req = {
@@ -293,8 +295,8 @@ export type RouteSpec = {
   /** A valid request (fresh records where the route consumes them). */
   sample: () => Promise<Sample>;
   fields?: Field[];
-  /** The stored entity after an accepted case, in the body's field names. */
-  readBack?: (s: Sample, response: unknown) => Promise<unknown>;
+  /** The stored entity after an accepted case, in the body's field names (given the request that was sent). */
+  readBack?: (s: Sample, response: unknown, sent: Req) => Promise<unknown>;
   /** Rows the route would change in place; compared before and after a refusal. */
   watch?: (s: Sample) => Promise<unknown>;
   /** A new sample after each accepted case (default); false keeps the sample. */
@@ -381,7 +383,8 @@ export function fieldCases(fields: Field[]): Case[] {
       const max = f.max ?? Infinity;
       for (const p of [...ODD_TEXT, ...LINE_TEXT, ...CONTROL_TEXT]) {
         const legal = legalText(textKind, p.value, max);
-        cases.push({ category: p.category, label: `${name} = ${JSON.stringify(p.value)}`, build: put(wrap(p.value)), field: legal ? null : field, accept: legal ? "must" : "never", stored: legal ? stored(wrap(p.value)) : undefined });
+        const accept = legal ? (f.mayRefuse ? "may" : "must") : "never";
+        cases.push({ category: p.category, label: `${name} = ${JSON.stringify(p.value)}`, build: put(wrap(p.value)), field: legal ? null : field, accept, stored: legal ? stored(wrap(p.value)) : undefined });
       }
       cases.push({ category: "10 MB string", label: name, build: put(wrap(TEN_MB)), field });
       for (const l of LONE_SURROGATES) {
@@ -454,7 +457,7 @@ export class Hostile {
     }
     expect.soft(c.accept ?? "never", `${label}: accepted bad input`).not.toBe("never");
     if (c.stored && spec.readBack) {
-      const stored = await spec.readBack(sample, text ? JSON.parse(text) : null);
+      const stored = await spec.readBack(sample, text ? JSON.parse(text) : null, r);
       expect.soft(getPath(stored, c.stored.path), `${label}: stored value differs`).toEqual(c.stored.value);
     }
     this.count(c.category, "accepted");
@@ -523,10 +526,12 @@ export class Hostile {
         return;
       }
       if (path && spec.readBack) {
-        const stored = getPath(await spec.readBack(sample, text ? JSON.parse(text) : null), path);
+        const stored = getPath(await spec.readBack(sample, text ? JSON.parse(text) : null, r), path);
         // Text is stored trimmed where the schema trims, numbers to the column's scale; anything else exactly.
-        const decimals = spec.fields?.find((f) => dotted(f.path) === dotted(path))?.decimals;
-        const expected = typeof sent === "string" ? [sent, sent.trim()] : typeof sent === "number" ? [storedNumber(sent, decimals)] : [sent];
+        const field = spec.fields?.find((f) => dotted(f.path) === dotted(path));
+        const expected = typeof sent === "string" ? [sent, sent.trim()] : typeof sent === "number" ? [storedNumber(sent, field?.decimals)] : [sent];
+        // An optional text left blank is stored as none.
+        if (field?.nullable && typeof sent === "string" && sent.trim() === "") expected.push(null);
         expect(expected, `${label}: stored ${JSON.stringify(stored)}`).toContainEqual(stored);
       }
       this.count("fast-check", "accepted");
