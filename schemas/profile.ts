@@ -4,6 +4,7 @@ import { AGGREGATE_FNS } from "@/lib/reduction/aggregate";
 import { METHODS } from "@/lib/reduction/methods";
 import type { Profile, StepMethod } from "@/lib/reduction/profile";
 import { OUTPUT_NAME_PATTERN, TAG_KINDS } from "@/lib/reduction/profile-names";
+import { TEXT_CONTROL_MESSAGE, noControlInName, noControlInText } from "./text";
 
 // One schema for the profile editor (zodResolver), server actions (safeParse) and route
 // handlers (.parse → 422). schemas/profile.schema.json is the same document as a JSON
@@ -16,7 +17,7 @@ const LABELS: Record<string, string> = { "max-interval": "max interval", "reset-
 
 const notInMagnitude = (iss: z.core.$ZodRawIssue) =>
   iss.code === "unrecognized_keys" ? `${iss.keys.map((k) => `"${k}"`).join(", ")} does not belong in a magnitude ({ value, unit } or { percent }).` : undefined;
-const unit = z.string({ error: UNIT_MESSAGE }).min(1, UNIT_MESSAGE).max(32, UNIT_MESSAGE).regex(/\S/, UNIT_MESSAGE);
+const unit = z.string({ error: UNIT_MESSAGE }).min(1, UNIT_MESSAGE).max(32, UNIT_MESSAGE).regex(/\S/, UNIT_MESSAGE).refine(noControlInName, "A unit cannot contain control characters.");
 const percent = z.strictObject({ percent: z.number({ error: PERCENT_MESSAGE }).gt(0, PERCENT_MESSAGE).max(100, PERCENT_MESSAGE) }, { error: notInMagnitude });
 
 /** An absolute { value, unit } or a { percent } of the engineering range; a width's value is ≥ 0. */
@@ -132,8 +133,13 @@ const NAME_MESSAGE = "Give the profile a name (at most 80 characters).";
 
 const documentShape = z.strictObject(
   {
-    name: z.string({ error: NAME_MESSAGE }).min(1, NAME_MESSAGE).max(80, NAME_MESSAGE).regex(/\S/, NAME_MESSAGE),
-    description: z.string({ error: "The description is text." }).max(2000, "A description has at most 2000 characters.").optional(),
+    name: z
+      .string({ error: NAME_MESSAGE })
+      .min(1, NAME_MESSAGE)
+      .max(80, NAME_MESSAGE)
+      .regex(/\S/, NAME_MESSAGE)
+      .refine(noControlInName, "A profile name cannot contain control characters (tabs, line breaks)."),
+    description: z.string({ error: "The description is text." }).max(2000, "A description has at most 2000 characters.").refine(noControlInText, TEXT_CONTROL_MESSAGE).optional(),
     kinds: z
       .array(choice(TAG_KINDS), { error: "Choose the tag kinds the profile is meant for." })
       .min(1, "Choose the tag kinds the profile is meant for.")
@@ -161,7 +167,7 @@ export const profileDocumentSchema = documentShape.superRefine((doc, ctx) => {
   for (const p of semanticProblems(doc)) ctx.addIssue({ code: "custom", path: p.path, message: sentence(p.message) });
 });
 
-const note = z.string({ error: "A note is text." }).trim().max(500, "A note has at most 500 characters.").default("");
+const note = z.string({ error: "A note is text." }).trim().max(500, "A note has at most 500 characters.").refine(noControlInText, TEXT_CONTROL_MESSAGE).default("");
 
 /** A new revision of a profile; `baseRevision` is the revision the editor started from. */
 export const profileSaveSchema = z.object({

@@ -11,6 +11,7 @@ import { profileToYaml } from "@/lib/profiles/yaml";
 import { METHODS, type Profile } from "@/lib/reduction/profile";
 import { ProfileRevision, ReductionProfile, User, sequelize } from "@/models";
 import { profileDocumentSchema } from "@/schemas/profile";
+import { TEXT_CONTROL_MESSAGE, noControlInText } from "@/schemas/text";
 import { assertCan } from "./access";
 import { profileUsage, type ProfileUsage } from "./profile-usage";
 
@@ -30,7 +31,7 @@ export type ProfileSummary = {
 export type RevisionInfo = { number: number; note: string; createdAt: string; createdBy: string };
 export type ProfileDetail = ProfileSummary & { document: Profile; revisions: RevisionInfo[]; sites: ProfileUsage[] };
 
-const noteSchema = z.string().trim().max(500, "A note has at most 500 characters.").default("");
+const noteSchema = z.string().trim().max(500, "A note has at most 500 characters.").refine(noControlInText, TEXT_CONTROL_MESSAGE).default("");
 const saveSchema = z.object({
   document: z.unknown(),
   note: noteSchema,

@@ -108,5 +108,6 @@ function unknownKeyMessage(path: PathSegment[], doc: unknown, key: string): stri
 
 function patternMessage(path: PathSegment[]): string {
   if (path.at(-1) === "name" && path[0] === "outputs") return "an output name is 1–32 lower-case letters, digits, - or _, starting with a letter or digit";
-  return "must not be blank";
+  if (path.length === 1 && path[0] === "description") return "must not hold control characters other than tabs and line breaks";
+  return "must not be blank or hold control characters";
 }
