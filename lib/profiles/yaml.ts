@@ -95,6 +95,11 @@ function readDocument(doc: Document, lines: LineCounter): ProfileFromYaml {
   if (doc.errors.length > 0) {
     return { ok: false, problems: doc.errors.map((e) => ({ path: "", line: lineAt(e.pos[0]), message: firstLine(e.message) })) };
   }
+  // An unknown tag (!!js/function, !custom) would otherwise be dropped silently and its text kept.
+  const unresolved = doc.warnings.filter((w) => w.code === "TAG_RESOLVE_FAILED");
+  if (unresolved.length > 0) {
+    return { ok: false, problems: unresolved.map((w) => ({ path: "", line: lineAt(w.pos[0]), message: `${firstLine(w.message)}; a profile file uses no tags.` })) };
+  }
   let value: unknown;
   try {
     value = doc.toJS({ maxAliasCount: MAX_ALIASES });
@@ -105,6 +110,8 @@ function readDocument(doc: Document, lines: LineCounter): ProfileFromYaml {
   if (typeof value !== "object" || value === null || Array.isArray(value) || !Object.hasOwn(value, "sluice")) {
     return { ok: false, problems: [{ path: "sluice", line: top, message: `This is not a Sluice profile file: it does not start with "sluice: ${PROFILE_FILE_FORMAT}".` }] };
   }
+  const lone = loneSurrogatePath(value);
+  if (lone) return { ok: false, problems: [{ path: formatPath(lone), line: lineAt(offsetOf(doc, lone)), message: "The text is not valid Unicode (it holds a lone surrogate such as \\ud800)." }] };
   const { sluice, revision: _revision, exported: _exported, ...document } = value as Record<string, unknown>;
   if (sluice !== PROFILE_FILE_FORMAT) {
     const message = `"sluice: ${String(sluice)}" is not a format this version reads; a profile file says "sluice: ${PROFILE_FILE_FORMAT}".`;
@@ -152,4 +159,31 @@ function orderedValue(v: unknown): unknown {
 
 function firstLine(message: string): string {
   return message.split("\n")[0];
+}
+
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
+
+/** Where a key or text holds an unpaired UTF-16 surrogate: YAML can escape one ("\ud800"), but it is no Unicode character. */
+function loneSurrogatePath(value: unknown): PathSegment[] | undefined {
+  type Node = { v: unknown; key?: PathSegment; up?: Node };
+  const pathOf = (node: Node) => {
+    const path: PathSegment[] = [];
+    for (let n: Node | undefined = node; n?.key !== undefined; n = n.up) path.unshift(n.key);
+    return path;
+  };
+  const stack: Node[] = [{ v: value }];
+  while (stack.length > 0) {
+    const node = stack.pop()!;
+    if (typeof node.v === "string") {
+      if (LONE_SURROGATE.test(node.v)) return pathOf(node);
+    } else if (node.v !== null && typeof node.v === "object") {
+      const entries = Object.entries(node.v);
+      for (let i = entries.length - 1; i >= 0; i--) {
+        const child: Node = { v: entries[i][1], key: Array.isArray(node.v) ? Number(entries[i][0]) : entries[i][0], up: node };
+        if (LONE_SURROGATE.test(entries[i][0])) return pathOf(child);
+        stack.push(child);
+      }
+    }
+  }
+  return undefined;
 }
