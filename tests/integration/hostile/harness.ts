@@ -260,6 +260,8 @@ export type Field = {
   noReadBack?: boolean;
   /** Legal text may still be refused (a glob pattern with odd syntax); when accepted it is stored exactly. */
   mayRefuse?: boolean;
+  /** Appended to each catalogue text, where the value must be unique across the store (profile names). */
+  affix?: string;
 };
 
 export type Req = {
@@ -381,7 +383,8 @@ export function fieldCases(fields: Field[]): Case[] {
     if (textKind) {
       const wrap = (v: string) => (f.type === "list" ? [v] : v);
       const max = f.max ?? Infinity;
-      for (const p of [...ODD_TEXT, ...LINE_TEXT, ...CONTROL_TEXT]) {
+      for (const payload of [...ODD_TEXT, ...LINE_TEXT, ...CONTROL_TEXT]) {
+        const p = { ...payload, value: payload.value + (f.affix ?? "") };
         const legal = legalText(textKind, p.value, max);
         const accept = legal ? (f.mayRefuse ? "may" : "must") : "never";
         cases.push({ category: p.category, label: `${name} = ${JSON.stringify(p.value)}`, build: put(wrap(p.value)), field: legal ? null : field, accept, stored: legal ? stored(wrap(p.value)) : undefined });
@@ -507,7 +510,7 @@ export class Hostile {
   }
 
   /** fast-check: whole bodies from `bodies`, then the sample with one field replaced by an odd value. */
-  async fuzzRoute(spec: RouteSpec, opts: { seed: number; runs: number; paths?: (string | number)[][]; bodies?: fc.Arbitrary<unknown> }): Promise<void> {
+  async fuzzRoute(spec: RouteSpec, opts: { seed: number; runs: number; paths?: (string | number)[][]; bodies?: fc.Arbitrary<unknown>; raw?: boolean }): Promise<void> {
     let sample = await spec.sample();
     const method = spec.key.split(" ")[0];
     const one = async (r: Req, what: string, path?: (string | number)[], sent?: unknown) => {
@@ -540,8 +543,8 @@ export class Hostile {
     };
     await fc.assert(
       fc.asyncProperty(opts.bodies ?? fc.jsonValue(), async (body) => {
-        const raw = JSON.stringify(body);
-        await one({ ...sample, body: undefined, rawBody: raw ?? "" }, `body ${String(raw).slice(0, 80)}`);
+        const raw = opts.raw ? String(body) : JSON.stringify(body);
+        await one({ ...sample, body: undefined, rawBody: raw ?? "" }, `body ${JSON.stringify(String(raw).slice(0, 80))}`);
       }),
       { seed: opts.seed, numRuns: opts.runs, endOnFailure: true },
     );
