@@ -1,5 +1,4 @@
 import "server-only";
-import { gzipSync } from "node:zlib";
 import { QueryTypes } from "sequelize";
 import { sequelize } from "@/models";
 
@@ -9,17 +8,17 @@ import { sequelize } from "@/models";
  * never gets this far. Least recently used entries go once the cache holds 64 MB.
  */
 const LIMIT_BYTES = 64 * 1024 * 1024;
-type Entry = { bytes: Buffer; gzip?: Buffer };
+type Entry = { bytes: Buffer };
 const cache = new Map<string, Entry>();
 let held = 0;
 
 function remember(digest: string, entry: Entry) {
   cache.set(digest, entry);
-  held += entry.bytes.length + (entry.gzip?.length ?? 0);
+  held += entry.bytes.length;
   for (const [k, v] of cache) {
     if (held <= LIMIT_BYTES) break;
     cache.delete(k);
-    held -= v.bytes.length + (v.gzip?.length ?? 0);
+    held -= v.bytes.length;
   }
 }
 
@@ -40,14 +39,4 @@ async function entryFor(bundleId: number, digest: string): Promise<Entry> {
 /** The exact bytes of a bundle (identity coding). */
 export async function bundleBytes(bundleId: number, digest: string): Promise<Buffer> {
   return (await entryFor(bundleId, digest)).bytes;
-}
-
-/** The gzip-coded bytes of a bundle, compressed once per digest. */
-export async function bundleGzip(bundleId: number, digest: string): Promise<Buffer> {
-  const entry = await entryFor(bundleId, digest);
-  if (!entry.gzip) {
-    entry.gzip = gzipSync(entry.bytes, { level: 9 });
-    held += entry.gzip.length;
-  }
-  return entry.gzip;
 }

@@ -45,25 +45,13 @@ function opaque(tag: string): string | null {
   return m ? m[1] : null;
 }
 
-/** The strong ETag of a representation: the quoted SHA-256 hex, with `-gzip` for the gzip-coded one. */
-export function bundleEtag(digest: string, gzip: boolean): string {
-  return gzip ? `"${digest}-gzip"` : `"${digest}"`;
-}
-
 /**
- * Whether the client accepts gzip (RFC 9110 §12.5.3): `gzip` or `x-gzip` listed with a
- * q-value above 0, or `*` above 0 without gzip refused.
+ * The strong ETag of a bundle: its quoted SHA-256 hex. Bundles are always sent with the
+ * identity coding: Next.js 16 drops a route handler's Content-Encoding header, so a gzip
+ * body could not be labelled. A proxy that compresses in front of Sluice must give the
+ * compressed representation another ETag (RFC 9110 §8.8.3; a weak one is enough, since
+ * If-None-Match uses the weak comparison).
  */
-export function acceptsGzip(field: string | null): boolean {
-  if (!field) return false;
-  let star: number | null = null;
-  for (const part of field.split(",")) {
-    const [name, ...params] = part.trim().toLowerCase().split(";");
-    const qParam = params.map((p) => p.trim()).find((p) => p.startsWith("q="));
-    const q = qParam ? Number(qParam.slice(2)) : 1;
-    const weight = Number.isFinite(q) ? q : 0;
-    if (name === "gzip" || name === "x-gzip") return weight > 0;
-    if (name === "*") star = weight;
-  }
-  return star !== null && star > 0;
+export function bundleEtag(digest: string): string {
+  return `"${digest}"`;
 }

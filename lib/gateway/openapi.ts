@@ -17,7 +17,12 @@ const freshness = {
     schema: { type: "string", pattern: "^[A-Za-z0-9_-]+\\.[A-Za-z0-9_-]+\\.[A-Za-z0-9_-]+$" },
   },
 };
-const etag = { ETag: { description: 'Strong entity tag: the quoted SHA-256 hex of the uncompressed bundle; `"<hex>-gzip"` for the gzip-coded representation (RFC 9110 §8.8.3).', schema: { type: "string" } } };
+const etag = {
+  ETag: {
+    description: "Strong entity tag: the quoted SHA-256 hex of the bundle's bytes. The body is always sent uncompressed; a proxy that compresses must give that representation another (weak) ETag (RFC 9110 §8.8.3).",
+    schema: { type: "string" },
+  },
+};
 const cacheControl = { "Cache-Control": { schema: { type: "string", const: "private, no-cache" } } };
 const authFailures = {
   "401": { description: "No token, or an unknown, expired or revoked one. Sent before any precondition is evaluated.", headers: challenge, content: json(error) },
@@ -44,7 +49,6 @@ export function gatewayOpenApi(serverUrl?: string) {
           summary: "The calling gateway's bundle of its site's newest release",
           parameters: [
             { name: "If-None-Match", in: "header", required: false, description: "Entity tags, or `*`; weak comparison (RFC 9110 §13.1.2).", schema: { type: "string" } },
-            { name: "Accept-Encoding", in: "header", required: false, description: "`gzip` gets a gzip-coded body with its own ETag.", schema: { type: "string" } },
           ],
           responses: {
             "200": {

@@ -1,3 +1,4 @@
+import http from "node:http";
 import { beforeAll, describe, expect, it } from "vitest";
 import { digestHex } from "@/lib/bundles/digest";
 import { A, B, DEMO_ADMIN, DEMO_REVIEWER, api, db, pull, signIn, twoReleases } from "./harness";
@@ -44,6 +45,17 @@ describe("two app instances", () => {
     expect(rb.headers.get("etag")).toBe(ra.headers.get("etag"));
     expect(rb.headers.get("bundle-signature")).toBe(ra.headers.get("bundle-signature"));
     expect(rb.headers.get("bundle-release")).toBe(ra.headers.get("bundle-release"));
+    // Over real HTTP, a client that accepts gzip still gets the exact bytes under the identity ETag (Next.js compresses nothing here).
+    const raw = await new Promise<{ headers: http.IncomingHttpHeaders; body: Buffer }>((resolve, reject) => {
+      http.get(`${B}/api/gateway/v1/bundle`, { headers: { authorization: `Bearer ${issued.token}`, "accept-encoding": "gzip, deflate, br" } }, (res) => {
+        const chunks: Buffer[] = [];
+        res.on("data", (c: Buffer) => chunks.push(c));
+        res.on("end", () => resolve({ headers: res.headers, body: Buffer.concat(chunks) }));
+      }).on("error", reject);
+    });
+    expect(raw.headers["content-encoding"]).toBeUndefined();
+    expect(raw.body.equals(ba)).toBe(true);
+    expect(raw.headers.etag).toBe(ra.headers.get("etag"));
     // Each instance's 304 honours the other's ETag.
     expect((await pull(B, issued.token, { "if-none-match": ra.headers.get("etag")! })).status).toBe(304);
     // Both publish the same configured keys (not one generated per data directory).

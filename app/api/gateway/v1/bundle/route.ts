@@ -1,7 +1,7 @@
-import { acceptsGzip, bundleEtag, ifNoneMatchMatches } from "@/lib/gateway/conditional";
+import { bundleEtag, ifNoneMatchMatches } from "@/lib/gateway/conditional";
 import { freshnessFor } from "@/lib/gateway/freshness";
 import { authenticateGateway } from "@/lib/data/gateway-auth";
-import { bundleBytes, bundleGzip } from "@/lib/data/gateway-bundle";
+import { bundleBytes } from "@/lib/data/gateway-bundle";
 import { signingKeys } from "@/lib/data/signing-keys";
 import { HttpError, route } from "@/lib/http";
 
@@ -13,24 +13,20 @@ export const GET = route(async (req: Request) => {
   if (pull.bundleId === null || pull.digest === null || pull.release === null) {
     throw new HttpError(404, `no release holds a bundle for gateway ${pull.gateway} yet`, "release");
   }
-  const gzip = acceptsGzip(req.headers.get("accept-encoding"));
-  const etag = bundleEtag(pull.digest, gzip);
+  const etag = bundleEtag(pull.digest);
   const { keys } = signingKeys();
   const key = keys.find((k) => k.id === pull.keyId) ?? signingKeys().active;
   const headers: Record<string, string> = {
     ETag: etag,
     "Cache-Control": "private, no-cache",
-    Vary: "Accept-Encoding",
     "Bundle-Release": String(pull.release),
     "Bundle-Freshness": await freshnessFor(pull.gateway, pull.release, pull.digest, pull.pollSeconds, key),
   };
   if (ifNoneMatchMatches(req.headers.get("if-none-match"), etag)) {
     return new Response(null, { status: 304, headers: { ...headers, Date: new Date().toUTCString() } });
   }
-  const body = gzip ? await bundleGzip(pull.bundleId, pull.digest) : await bundleBytes(pull.bundleId, pull.digest);
+  const body = await bundleBytes(pull.bundleId, pull.digest);
   headers["Content-Type"] = "application/yaml; charset=utf-8";
   headers["Bundle-Signature"] = `key=${pull.keyId}, ed25519=${pull.signature}`;
-  headers["Content-Length"] = String(body.length);
-  if (gzip) headers["Content-Encoding"] = "gzip";
   return new Response(new Uint8Array(body), { status: 200, headers });
 });
