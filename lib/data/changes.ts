@@ -8,6 +8,7 @@ import { REGULATED_RECORD_CAUTION } from "@/lib/cautions";
 import { diffConfigs } from "@/lib/config/site-config";
 import { HttpError } from "@/lib/http";
 import { CautionAcknowledgement, Change, ChangeAuthor, Site, TagGroup, User, sequelize, type ChangeReview } from "@/models";
+import { TEXT_CONTROL_MESSAGE, noControlInText } from "@/schemas/text";
 import { assertCan } from "./access";
 import { renderReview } from "./change-review";
 import { loadBaseConfig } from "./drafts";
@@ -16,11 +17,13 @@ import { notifyChange } from "./notify";
 import { publishRelease } from "./releases";
 import { siteBySlug } from "./sites";
 
-export const submitSchema = z.object({ note: z.string().trim().max(1000, "A note has at most 1,000 characters.").default("") }).strict();
+export const submitSchema = z.object({ note: z.string().trim().max(1000, "A note has at most 1,000 characters.").refine(noControlInText, TEXT_CONTROL_MESSAGE).default("") }).strict();
 export const approveSchema = z
-  .object({ comment: z.string().trim().max(2000, "A comment has at most 2,000 characters.").default(""), acknowledge: z.string().max(64).optional() })
+  .object({ comment: z.string().trim().max(2000, "A comment has at most 2,000 characters.").refine(noControlInText, TEXT_CONTROL_MESSAGE).default(""), acknowledge: z.string().max(64).optional() })
   .strict();
-export const rejectSchema = z.object({ comment: z.string({ error: "Say why the change is rejected." }).trim().min(1, "Say why the change is rejected.").max(2000) }).strict();
+export const rejectSchema = z
+  .object({ comment: z.string({ error: "Say why the change is rejected." }).trim().min(1, "Say why the change is rejected.").max(2000).refine(noControlInText, TEXT_CONTROL_MESSAGE) })
+  .strict();
 
 const OPEN = ["draft", "in_review", "approved", "rejected"] as const;
 
@@ -239,10 +242,15 @@ export async function releaseChange(actor: Actor | null, siteSlug: string, chang
 
 export const rollbackSchema = z.object({
   release: z.number({ error: "Choose the release to go back to." }).int().positive("Choose the release to go back to."),
-  note: z.string().trim().max(1000).default(""),
+  note: z.string().trim().max(1000).refine(noControlInText, TEXT_CONTROL_MESSAGE).default(""),
 });
 export const urgentSchema = z.object({
   release: z.number({ error: "Choose the release to go back to." }).int().positive("Choose the release to go back to."),
-  reason: z.string({ error: "Write why this cannot wait for a second reviewer." }).trim().min(10, "Write why this cannot wait for a second reviewer (at least 10 characters).").max(2000),
+  reason: z
+    .string({ error: "Write why this cannot wait for a second reviewer." })
+    .trim()
+    .min(10, "Write why this cannot wait for a second reviewer (at least 10 characters).")
+    .max(2000)
+    .refine(noControlInText, TEXT_CONTROL_MESSAGE),
 });
 
