@@ -1,7 +1,8 @@
 import { z } from "zod";
+import { noControlInName } from "./text";
 
 const magnitude = z.union([
-  z.object({ value: z.number({ error: "value must be a number" }), unit: z.string().trim().min(1, "Give the unit.").max(32) }).strict(),
+  z.object({ value: z.number({ error: "value must be a number" }), unit: z.string().trim().min(1, "Give the unit.").max(32).refine(noControlInName, "A unit cannot contain control characters.") }).strict(),
   z.object({ percent: z.number({ error: "percent must be a number" }).gt(0, "A percent is above 0.").max(100, "A percent is at most 100.") }).strict(),
 ]);
 
