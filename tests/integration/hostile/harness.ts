@@ -340,6 +340,13 @@ export function storedNumber(value: number, decimals?: number): number {
   return Math.round(value * scale) / scale + 0;
 }
 
+/** The field a refusal names for a path, written a.0.b or a[0].b, or a field inside it. */
+export function fieldPattern(path: (string | number)[]): RegExp {
+  const esc = (x: string) => x.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");
+  const parts = path.map((seg, i) => (typeof seg === "number" ? `(?:\\.${seg}|\\[${seg}\\])` : `${i ? "\\." : ""}${esc(seg)}`));
+  return new RegExp(`^${parts.join("")}(?:\\.|\\[|$)`);
+}
+
 /** Not JSON and JSON of the wrong root type. */
 export function bodyCases(opts: { field?: string | RegExp | null } = {}): Case[] {
   const field = opts.field === undefined ? "body" : opts.field;
@@ -354,7 +361,7 @@ export function fieldCases(fields: Field[]): Case[] {
   const cases: Case[] = [];
   for (const f of fields) {
     const name = dotted(f.path);
-    const field = f.reportedAs ?? new RegExp(`^${name.replace(/\./g, "\\.")}(\\.|$)`);
+    const field = f.reportedAs ?? fieldPattern(f.path);
     const put = (value: unknown) => (s: Sample): Req => ({ ...s, body: setPath(s.body, f.path, value) });
     const raw = (token: string) => (s: Sample): Req => ({ ...s, body: undefined, rawBody: withRawToken(s.body, f.path, token) });
     const stored = (value: unknown) => (f.noReadBack ? undefined : { path: f.path, value });
