@@ -9,6 +9,7 @@ import { packSeries, unpackSeries } from "@/lib/samples/storage";
 import { decodeSeriesWire } from "@/lib/samples/wire";
 import { SampleSet, Tag, TagGroup, User, sequelize } from "@/models";
 import { TAG_KINDS } from "@/schemas/tag";
+import { NAME_CONTROL_MESSAGE, noControlInName } from "@/schemas/text";
 import { assertCan } from "./access";
 import { siteBySlug } from "./sites";
 
@@ -32,10 +33,10 @@ export type SampleSetView = {
 
 const number = z.coerce.number({ error: "must be a number" });
 export const sampleMetaSchema = z.object({
-  name: z.string({ error: "Name the sample set." }).trim().min(1, "Name the sample set.").max(120, "At most 120 characters."),
+  name: z.string({ error: "Name the sample set." }).trim().min(1, "Name the sample set.").max(120, "At most 120 characters.").refine(noControlInName, NAME_CONTROL_MESSAGE),
   tag: z.string({ error: "Name the tag the samples stand for." }).trim().min(1, "Name the tag the samples stand for.").max(191),
   kind: z.enum(TAG_KINDS, { error: "kind is analog, discrete or counter" }).optional(),
-  unit: z.string().trim().min(1).max(32).optional(),
+  unit: z.string().trim().min(1).max(32).refine(noControlInName, NAME_CONTROL_MESSAGE).optional(),
   euLow: number.optional(),
   euHigh: number.optional(),
   samplePeriodMs: number.pipe(z.number().int().min(1).max(86_400_000)).optional(),
