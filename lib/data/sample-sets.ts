@@ -31,7 +31,8 @@ export type SampleSetView = {
   createdBy: string;
 };
 
-const number = z.coerce.number({ error: "must be a number" });
+// Query values are text: an empty one ("euLow=") means not given, not 0.
+const number = z.preprocess((v) => (typeof v === "string" && v.trim() === "" ? undefined : v), z.coerce.number({ error: "must be a number" }).optional());
 export const sampleMetaSchema = z.object({
   name: z.string({ error: "Name the sample set." }).trim().min(1, "Name the sample set.").max(120, "At most 120 characters.").refine(noControlInName, NAME_CONTROL_MESSAGE),
   tag: z.string({ error: "Name the tag the samples stand for." }).trim().min(1, "Name the tag the samples stand for.").max(191),
