@@ -17,6 +17,9 @@ import { siteBySlug } from "./sites";
 export const SAMPLE_SET_MAX_SAMPLES = 1_000_000;
 /** Largest stored encoding accepted (MariaDB's default max_allowed_packet is 16 MiB). */
 export const SAMPLE_SET_MAX_BYTES = 15 * 2 ** 20;
+/** The times a DATETIME(3) column holds (first and last sample are stored so): 1000-01-01 to 9999-12-31 UTC. */
+const STORABLE_FROM_MS = Date.UTC(1000, 0, 1);
+const STORABLE_TO_MS = Date.UTC(9999, 11, 31, 23, 59, 59, 999);
 
 export type SampleSetView = {
   id: number;
@@ -100,6 +103,9 @@ export async function createSampleSet(actor: Actor | null, siteSlug: string, gro
   } catch (e) {
     if (e instanceof SeriesError) throw new HttpError(422, e.message, "body");
     throw e;
+  }
+  if (series.t[0] < STORABLE_FROM_MS || series.t[series.t.length - 1] > STORABLE_TO_MS) {
+    throw new HttpError(422, `sample times must lie between 1000-01-01 and 9999-12-31 UTC (epoch ms ${STORABLE_FROM_MS} to ${STORABLE_TO_MS})`, "body");
   }
   const { site, group } = await groupOf(siteSlug, groupId);
   const tag = await tagContext(site.id, meta);
