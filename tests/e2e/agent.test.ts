@@ -5,7 +5,7 @@ import path from "node:path";
 import { promisify } from "node:util";
 import { parse } from "yaml";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { BASE_URL, DEMO } from "./browser";
+import { BASE_URL, DEMO, launch, signIn } from "./browser";
 
 const SITE = "fenwick-creamery";
 const GATEWAY = "fw-gw-01";
@@ -121,5 +121,18 @@ describe("the reference gateway agent against the running registry", () => {
     expect(ran.release).toBeGreaterThanOrEqual(bundle.release);
     expect(gw?.runningRelease).toBe(ran.release);
     expect(gw?.unknownTags).toContain("E2E/NOT-IN-INVENTORY/PV");
+
+    // The fleet page shows what the agent said it runs.
+    const browser = await launch();
+    try {
+      const page = await browser.newPage();
+      await signIn(page, DEMO.viewer);
+      await page.goto(`${BASE_URL}/fleet?site=${SITE}`);
+      const row = page.getByTestId(`gateway-${SITE}-${GATEWAY}`);
+      expect(await row.getByTestId("running-release").textContent()).toContain(`release ${ran.release}`);
+      expect(await row.locator("[data-state]").getAttribute("data-state")).toBe("current");
+    } finally {
+      await browser.close();
+    }
   });
 });
