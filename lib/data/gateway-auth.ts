@@ -35,7 +35,7 @@ const TOKEN_RULES: readonly ThrottleRule[] = [
 ];
 
 /** The token → gateway → current bundle lookup: one query over primary keys and the unique token hash. */
-const PULL_SQL = `SELECT t.id AS tokenId, g.id AS gatewayId, g.slug AS gateway, g.site_id AS siteId, g.poll_seconds AS pollSeconds,
+export const PULL_SQL = `SELECT t.id AS tokenId, g.id AS gatewayId, g.slug AS gateway, g.site_id AS siteId, g.poll_seconds AS pollSeconds,
          b.id AS bundleId, b.digest, b.key_id AS keyId, b.signature, r.number AS \`release\`
     FROM gateway_tokens t
     JOIN gateways g ON g.id = t.gateway_id

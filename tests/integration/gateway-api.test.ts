@@ -217,6 +217,21 @@ describe("GET /api/gateway/v1/bundle", () => {
   });
 });
 
+describe("the pull's one query", () => {
+  it("reads token → gateway → bundle → release through unique keys only (EXPLAIN shows no scan)", async () => {
+    const { ta } = await released();
+    const { PULL_SQL } = await import("@/lib/data/gateway-auth");
+    const { hashToken } = await import("@/lib/gateway/token");
+    const { QueryTypes } = await import("sequelize");
+    const plan = await sequelize.query<{ table: string; type: string; key: string | null }>(`EXPLAIN ${PULL_SQL}`, { replacements: [hashToken(ta)], type: QueryTypes.SELECT });
+    expect(plan).toHaveLength(4);
+    for (const row of plan) {
+      expect(["const", "eq_ref"], JSON.stringify(row)).toContain(row.type);
+      expect(row.key, JSON.stringify(row)).toBeTruthy();
+    }
+  });
+});
+
 describe("GET /api/gateway/v1/signing-key", () => {
   it("lists the public keys without private parts", async () => {
     const { ta } = await released();
