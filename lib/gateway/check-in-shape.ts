@@ -17,5 +17,16 @@ export const checkInShape = z
   })
   .strict();
 
+// The times are stored as DATETIME(3), which holds the years 1000 to 9999.
+const STORABLE_FROM_MS = Date.UTC(1000, 0, 1);
+const STORABLE_TO_MS = Date.UTC(9999, 11, 31, 23, 59, 59, 999);
+
 // pointsOut may exceed pointsIn: a tag with several outputs (shape and statistics) can send more than it read.
-export const checkInSchema = checkInShape.refine((r) => Date.parse(r.from) <= Date.parse(r.to), { message: "must not be after to", path: ["from"] });
+export const checkInSchema = checkInShape
+  .superRefine((r, ctx) => {
+    for (const key of ["appliedAt", "from", "to"] as const) {
+      const ms = Date.parse(r[key]);
+      if (!(ms >= STORABLE_FROM_MS && ms <= STORABLE_TO_MS)) ctx.addIssue({ code: "custom", path: [key], message: "must lie between 1000-01-01 and 9999-12-31" });
+    }
+  })
+  .refine((r) => Date.parse(r.from) <= Date.parse(r.to), { message: "must not be after to", path: ["from"] });
