@@ -176,7 +176,7 @@ export function GroupEditor({ site, gateways, existing, canEdit }: Readonly<Prop
             {preview.wonElsewhere > 0 ? (
               <p className="mt-1 text-caution">{preview.wonElsewhere.toLocaleString("en")} of them are already taken by higher-priority groups.</p>
             ) : null}
-            <ul className="mt-3 max-h-80 overflow-y-auto font-mono text-micro" aria-label="Matched tags (sample)">
+            <ul className="mt-3 max-h-80 overflow-y-auto font-mono text-micro" aria-label="Matched tags (sample)" tabIndex={0}>
               {preview.sample.map((n) => (
                 <li key={n} className="truncate">
                   {n}

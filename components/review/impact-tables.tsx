@@ -85,7 +85,7 @@ export function BandwidthImpact({ site, bandwidth }: Readonly<{ site: string; ba
       </p>
       <p className="text-micro text-ink-faint">
         Estimates, not measurements: worked out when the change was submitted from the groups&apos; profiles, sample sets and the site&apos;s byte model.{" "}
-        <Link href={`/sites/${site}/estimates`} className="text-weir-700 hover:underline">
+        <Link href={`/sites/${site}/estimates`} className="text-weir-700 underline">
           See the assumptions
         </Link>
         .

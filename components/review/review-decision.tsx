@@ -52,7 +52,7 @@ function Decision({ site, change, canReview, isAuthor }: Readonly<Props>) {
   }
   if (state === "released") return <Say>Released. A release cannot be changed; to go back, start a rollback on the Releases tab.</Say>;
   const draftLink = (
-    <Link href={`/sites/${site}/draft`} className="text-weir-700 hover:underline">
+    <Link href={`/sites/${site}/draft`} className="text-weir-700 underline">
       Draft change
     </Link>
   );

@@ -165,7 +165,7 @@ export function TagImport({ site, gateways }: Readonly<Props>) {
           <h3 id="bad-rows" className="text-lead font-medium text-fault">
             {errors.length} problem{errors.length === 1 ? "" : "s"} — nothing will be imported until the file is fixed
           </h3>
-          <ul className="mt-2 max-h-80 overflow-y-auto text-label" aria-label="Bad rows">
+          <ul className="mt-2 max-h-80 overflow-y-auto text-label" aria-label="Bad rows" tabIndex={0}>
             {errors.slice(0, 1000).map((e, i) => (
               <li key={i}>
                 {e.line ? <span className="font-mono">line {e.line}</span> : null}
@@ -191,7 +191,7 @@ export function TagImport({ site, gateways }: Readonly<Props>) {
                 <input type="checkbox" checked={removeMissing} onChange={(e) => setRemoveMissing(e.target.checked)} />
                 Also remove the {plan.missing.length} tag{plan.missing.length === 1 ? "" : "s"} not in the file
               </label>
-              <ul className="mt-1 max-h-40 overflow-y-auto rounded border border-panel-line p-2 font-mono text-micro" aria-label="Tags not in the file">
+              <ul className="mt-1 max-h-40 overflow-y-auto rounded border border-panel-line p-2 font-mono text-micro" aria-label="Tags not in the file" tabIndex={0}>
                 {plan.missing.map((n) => (
                   <li key={n}>{n}</li>
                 ))}

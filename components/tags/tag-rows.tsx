@@ -50,8 +50,12 @@ export function TagRows({ site, gateways, store, order, selection, canEdit, edit
   const bySlot = new Array<number>(items.length);
   for (const [position, slot] of slots) bySlot[slot] = position;
   return (
-    <div ref={scroller} data-testid="tag-scroller" className="relative h-[65vh] overflow-y-auto [contain:strict] [overflow-anchor:none]" tabIndex={0} aria-label="Tag rows">
-      {empty}
+    <div ref={scroller} data-testid="tag-scroller" className="relative h-[65vh] overflow-y-auto [contain:strict] [overflow-anchor:none]" tabIndex={0} role="rowgroup" aria-label="Tag rows">
+      {empty ? (
+        <div role="row">
+          <div role="cell">{empty}</div>
+        </div>
+      ) : null}
       <div style={{ height: virtual.getTotalSize(), position: "relative", contain: "strict" }}>
         {bySlot.map((position, slot) => {
           const i = order[position];

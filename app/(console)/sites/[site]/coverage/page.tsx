@@ -28,7 +28,7 @@ export default async function CoveragePage({ params }: Readonly<Props>) {
         {cov.unassignedCount === 0 ? (
           <EmptyState title="Every tag is in a group" />
         ) : (
-          <div className="max-h-96 overflow-y-auto rounded-panel border border-panel-line bg-panel">
+          <div className="max-h-96 overflow-y-auto rounded-panel border border-panel-line bg-panel" tabIndex={0} role="region" aria-labelledby="unassigned-heading">
             <table aria-label="Tags in no group">
               <thead>
                 <tr>
@@ -60,7 +60,7 @@ export default async function CoveragePage({ params }: Readonly<Props>) {
         {cov.overlapCount === 0 ? (
           <EmptyState title="No overlaps">Each grouped tag is matched by exactly one group.</EmptyState>
         ) : (
-          <div className="max-h-96 overflow-y-auto rounded-panel border border-panel-line bg-panel">
+          <div className="max-h-96 overflow-y-auto rounded-panel border border-panel-line bg-panel" tabIndex={0} role="region" aria-labelledby="overlap-heading">
             <table aria-label="Tags several groups match">
               <thead>
                 <tr>

@@ -47,8 +47,9 @@ export default async function GroupsPage({ params }: Readonly<Props>) {
                   {g.regulated ? <span className="ml-2 rounded bg-caution-soft px-1.5 py-0.5 text-micro text-caution">regulated record</span> : null}
                   <p className="truncate text-micro text-ink-faint">{selectorSummary(g.selector)}</p>
                 </div>
-                <Link href={`/sites/${site}/groups/${g.id}/assignment`} className="text-label text-weir-700 hover:underline" aria-label={`Assignment of ${g.name}`}>
+                <Link href={`/sites/${site}/groups/${g.id}/assignment`} className="text-label text-weir-700 hover:underline">
                   {g.assignment ? `${g.assignment.profile} · r${g.assignment.revision}` : "Assign a profile"}
+                  <span className="sr-only">, assignment of {g.name}</span>
                 </Link>
                 <span className="text-label" data-testid={`group-count-${g.name}`}>
                   {g.tagCount.toLocaleString("en")} tags

@@ -59,7 +59,7 @@ export default async function ChangePage({ params }: Readonly<Props>) {
       {!review ? (
         <p className="rounded-panel border border-dashed border-panel-line bg-panel p-4 text-label text-ink-soft">
           This change has not been submitted for review yet, so there is nothing to review. Its edits are on the{" "}
-          <Link href={`/sites/${site}/draft`} className="text-weir-700 hover:underline">
+          <Link href={`/sites/${site}/draft`} className="text-weir-700 underline">
             Draft change
           </Link>{" "}
           page.

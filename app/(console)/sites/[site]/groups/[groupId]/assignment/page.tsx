@@ -34,7 +34,7 @@ export default async function GroupAssignmentPage({ params }: Readonly<Props>) {
       </h2>
       <p className="mb-4 text-label text-ink-soft">
         {detail.tagCount.toLocaleString("en")} tags ({[...detail.kinds, ...detail.units].join(", ") || "none yet"}).{" "}
-        <Link href={`/sites/${site}/groups/${id}`} className="text-weir-700 hover:underline">
+        <Link href={`/sites/${site}/groups/${id}`} className="text-weir-700 underline">
           Group rules
         </Link>
       </p>
