@@ -18,5 +18,9 @@ export type IssueTokenValues = z.output<typeof issueTokenSchema>;
 
 /** A token's id as it arrives in a path or on the command line. */
 export const tokenRefSchema = z.object({
-  tokenId: z.coerce.number({ message: "The token id must be a number." }).int("The token id is a whole number.").positive("The token id is a positive number."),
+  // Text (a path, the command line) or a number: only text is converted, so true or [5] are not read as 1 or 5.
+  tokenId: z.preprocess(
+    (v) => (typeof v === "string" && v.trim() !== "" ? Number(v) : v),
+    z.number({ message: "The token id must be a number." }).int("The token id is a whole number.").positive("The token id is a positive number."),
+  ),
 });

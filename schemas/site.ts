@@ -59,4 +59,5 @@ export const gatewaySchema = z.object({
 export type GatewayInput = z.input<typeof gatewaySchema>;
 export type GatewayValues = z.output<typeof gatewaySchema>;
 
-export const idSchema = z.coerce.number().int().positive();
+// An id from a path (text) or from a client (a number): only text is converted, so true or [5] are not read as 1 or 5.
+export const idSchema = z.preprocess((v) => (typeof v === "string" && v.trim() !== "" ? Number(v) : v), z.number().int().positive());
