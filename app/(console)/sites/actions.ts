@@ -7,6 +7,10 @@ import { createGateway, createSite, deleteGateway, deleteSite, updateGateway, up
 import type { GatewayInput, SiteInput } from "@/schemas/site";
 
 const slug = z.string().min(1).max(64);
+// What the client sends is checked as a whole first: it may be null or not an object at all.
+const siteRef = z.object({ site: slug });
+const gatewayRef = z.object({ site: slug, gateway: slug });
+const checked = <T>(schema: z.ZodType<T>, input: unknown): T => schema.parse(input);
 
 function refresh() {
   revalidatePath("/", "layout");
@@ -21,39 +25,47 @@ export async function createSiteAction(input: SiteInput) {
 
 // Replace a site's settings
 export async function updateSiteAction(input: { site: string; values: SiteInput }) {
-  const result = await runAction("fleet.admin", (actor) => updateSite(actor, slug.parse(input.site), input.values));
+  const result = await runAction("fleet.admin", (actor) => {
+    const { site, values } = checked(siteRef.extend({ values: z.unknown() }), input);
+    return updateSite(actor, site, values as SiteInput);
+  });
   if (result.ok) refresh();
   return result;
 }
 
 // Delete a site and its gateways (refused while releases need it)
 export async function deleteSiteAction(input: { site: string }) {
-  const result = await runAction("fleet.admin", (actor) => deleteSite(actor, slug.parse(input.site)).then(() => null));
+  const result = await runAction("fleet.admin", (actor) => deleteSite(actor, checked(siteRef, input).site).then(() => null));
   if (result.ok) refresh();
   return result;
 }
 
 // Register a gateway at a site
 export async function createGatewayAction(input: { site: string; values: GatewayInput }) {
-  const result = await runAction("fleet.admin", (actor) => createGateway(actor, slug.parse(input.site), input.values));
+  const result = await runAction("fleet.admin", (actor) => {
+    const { site, values } = checked(siteRef.extend({ values: z.unknown() }), input);
+    return createGateway(actor, site, values as GatewayInput);
+  });
   if (result.ok) refresh();
   return result;
 }
 
 // Replace a gateway's settings
 export async function updateGatewayAction(input: { site: string; gateway: string; values: GatewayInput }) {
-  const result = await runAction("fleet.admin", (actor) =>
-    updateGateway(actor, slug.parse(input.site), slug.parse(input.gateway), input.values),
-  );
+  const result = await runAction("fleet.admin", (actor) => {
+    const { site, gateway, values } = checked(gatewayRef.extend({ values: z.unknown() }), input);
+    return updateGateway(actor, site, gateway, values as GatewayInput);
+  });
   if (result.ok) refresh();
   return result;
 }
 
 // Delete a gateway (refused while releases need it)
 export async function deleteGatewayAction(input: { site: string; gateway: string }) {
-  const result = await runAction("fleet.admin", (actor) =>
-    deleteGateway(actor, slug.parse(input.site), slug.parse(input.gateway)).then(() => null),
-  );
+  const result = await runAction("fleet.admin", (actor) => {
+    const { site, gateway } = checked(gatewayRef, input);
+    return deleteGateway(actor, site, gateway).then(() => null);
+  });
   if (result.ok) refresh();
   return result;
 }
