@@ -4,13 +4,17 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { runAction } from "@/lib/actions";
 import { createGateway, createSite, deleteGateway, deleteSite, updateGateway, updateSite } from "@/lib/data/site-writes";
+import { assertWellFormedText } from "@/lib/http";
 import type { GatewayInput, SiteInput } from "@/schemas/site";
 
 const slug = z.string().min(1).max(64);
-// What the client sends is checked as a whole first: it may be null or not an object at all.
+// What the client sends is checked as a whole first: it may be null, or hold text that is not Unicode.
 const siteRef = z.object({ site: slug });
 const gatewayRef = z.object({ site: slug, gateway: slug });
-const checked = <T>(schema: z.ZodType<T>, input: unknown): T => schema.parse(input);
+const checked = <T>(schema: z.ZodType<T>, input: unknown): T => {
+  assertWellFormedText(input);
+  return schema.parse(input);
+};
 
 function refresh() {
   revalidatePath("/", "layout");
@@ -18,7 +22,7 @@ function refresh() {
 
 // Create a site
 export async function createSiteAction(input: SiteInput) {
-  const result = await runAction("fleet.admin", (actor) => createSite(actor, input));
+  const result = await runAction("fleet.admin", (actor) => createSite(actor, checked(z.unknown(), input) as SiteInput));
   if (result.ok) refresh();
   return result;
 }

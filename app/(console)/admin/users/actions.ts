@@ -4,12 +4,17 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { runAction } from "@/lib/actions";
 import { createUser, resetPassword, updateUser } from "@/lib/data/users";
+import { assertWellFormedText } from "@/lib/http";
 import { idSchema } from "@/schemas/site";
 import { updateUserSchema, type CreateUserInput, type UpdateUserInput } from "@/schemas/user";
 
 // Create an account; the generated password comes back once
 export async function createUserAction(input: CreateUserInput) {
-  const result = await runAction("fleet.admin", (actor) => createUser(actor, input));
+  const result = await runAction("fleet.admin", (actor) => {
+    // Text that is not Unicode (a lone surrogate) is refused before it reaches the database.
+    assertWellFormedText(input);
+    return createUser(actor, input);
+  });
   if (result.ok) revalidatePath("/admin/users");
   return result;
 }
@@ -19,6 +24,7 @@ const updateInput = z.object({ id: idSchema, patch: updateUserSchema });
 // Change a user's name, role or active flag (the last active admin stays)
 export async function updateUserAction(input: { id: number; patch: UpdateUserInput }) {
   const result = await runAction("fleet.admin", (actor) => {
+    assertWellFormedText(input);
     const { id, patch } = updateInput.parse(input);
     return updateUser(actor, id, patch);
   });

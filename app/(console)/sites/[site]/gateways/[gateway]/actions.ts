@@ -4,12 +4,16 @@ import { revalidatePath } from "next/cache";
 import { z } from "zod";
 import { runAction } from "@/lib/actions";
 import { createGatewayToken, revokeGatewayToken } from "@/lib/data/gateway-tokens";
+import { assertWellFormedText } from "@/lib/http";
 import type { IssueTokenInput } from "@/schemas/gateway-token";
 
 const slug = z.string().min(1).max(64);
-// What the client sends is checked as a whole first: it may be null or not an object at all.
+// What the client sends is checked as a whole first: it may be null, or hold text that is not Unicode.
 const gatewayRef = z.object({ site: slug, gateway: slug });
-const checked = <T>(schema: z.ZodType<T>, input: unknown): T => schema.parse(input);
+const checked = <T>(schema: z.ZodType<T>, input: unknown): T => {
+  assertWellFormedText(input);
+  return schema.parse(input);
+};
 
 const refresh = (site: string, gateway: string) => revalidatePath(`/sites/${site}/gateways/${gateway}`);
 
