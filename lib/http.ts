@@ -54,8 +54,27 @@ export function describeError(err: unknown): { status: number; body: ErrorBody; 
   if (err instanceof ConnectionError || (err instanceof DatabaseError && lostConnection(err))) {
     return { status: 503, body: { error: "the database is unavailable; try again shortly" }, headers: { "Retry-After": "5" } };
   }
+  if (err instanceof DatabaseError && errno !== undefined && DATA_ERRORS[errno]) return dataError(err, DATA_ERRORS[errno]);
   console.error(err);
   return { status: 500, body: { error: "internal error" } };
+}
+
+// A value a schema let through but the column cannot hold: bad input, never a server fault.
+const DATA_ERRORS: Record<number, string> = {
+  1406: "is too long to be stored",
+  1264: "is out of the range that can be stored",
+  1366: "is not a value that can be stored there",
+  1292: "is not a date or time that can be stored",
+  4025: "breaks the stored data's rule",
+};
+
+/** 422 naming the column (camelCase, as the body names it) or, for a CHECK constraint, the rule. */
+function dataError(err: DatabaseError, what: string): { status: number; body: ErrorBody } {
+  const message = (err as { parent?: { sqlMessage?: string } }).parent?.sqlMessage ?? err.message;
+  const column = /column (?:`[^`]*`\.)*[`']([^`']+)[`']/.exec(message)?.[1];
+  const rule = /CONSTRAINT `([^`]+)`/.exec(message)?.[1];
+  const field = column ? camel(column) : undefined;
+  return { status: 422, body: { error: `${field ?? "a value"} ${what}${rule ? ` (${rule})` : ""}`, ...(field ? { field } : {}) } };
 }
 
 /** A query that failed because the connection to the database broke (the server went away mid-request). */
