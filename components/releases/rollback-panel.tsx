@@ -93,7 +93,7 @@ export function RollbackPanel({ site, current, earlier, blockedBy }: Readonly<Pr
           reason, and every reviewer is e-mailed. Use it only when waiting for a second reviewer would do harm.
         </p>
         <Field label="Reason for releasing without a second reviewer" htmlFor="urgent-reason" hint={`At least ${MIN_REASON} characters; shown in the history and in the e-mail.`}>
-          <textarea id="urgent-reason" rows={3} maxLength={2000} className={inputClass} value={reason} onChange={(e) => setReason(e.target.value)} />
+          <textarea id="urgent-reason" rows={3} maxLength={1000} className={inputClass} value={reason} onChange={(e) => setReason(e.target.value)} />
         </Field>
         <ServerError message={urgentError} />
         <div>

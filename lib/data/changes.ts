@@ -246,11 +246,12 @@ export const rollbackSchema = z.object({
 });
 export const urgentSchema = z.object({
   release: z.number({ error: "Choose the release to go back to." }).int().positive("Choose the release to go back to."),
+  // Stored as the change's note (at most 1,000 characters) and, prefixed, as its review comment.
   reason: z
     .string({ error: "Write why this cannot wait for a second reviewer." })
     .trim()
     .min(10, "Write why this cannot wait for a second reviewer (at least 10 characters).")
-    .max(2000)
+    .max(1000, "A reason has at most 1,000 characters.")
     .refine(noControlInText, TEXT_CONTROL_MESSAGE),
 });
 
