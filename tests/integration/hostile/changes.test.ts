@@ -221,7 +221,7 @@ describe("hostile input: assignments, changes, releases and rollbacks", () => {
       ...fieldCases([
         { path: ["release"], type: "number", range: [1, 1], int: true, required: true },
         // At least 10 characters: the catalogue's shorter texts are refused for length, not content.
-        { path: ["reason"], type: "text", text: "text", max: 2000, required: true, affix: " — the line is down" },
+        { path: ["reason"], type: "text", text: "text", max: 1000, required: true, affix: " — the line is down" },
       ]),
       { category: "wrong type", label: "a 9-character reason", build: (s) => ({ ...s, body: { release: 1, reason: "too short" } }), field: "reason" },
       ...paramCases(["site"]),

@@ -231,7 +231,8 @@ export type TextKind = "name" | "text" | "strict";
 
 export function legalText(kind: TextKind, value: string, max: number): boolean {
   if (kind === "strict") return false;
-  if (!wellFormed(value) || value.length > max || value.trim() !== value) return false;
+  // Lengths count characters (code points), as zod and the database do, not UTF-16 units.
+  if (!wellFormed(value) || [...value].length > max || value.trim() !== value) return false;
   if (kind === "name") return value.length > 0 && !ANY_CONTROL.test(value);
   return !HARD_CONTROL.test(value);
 }
@@ -359,6 +360,7 @@ export function bodyCases(opts: { field?: string | RegExp | null } = {}): Case[]
 /** Every hand-picked case for each field of a JSON body. */
 export function fieldCases(fields: Field[]): Case[] {
   const cases: Case[] = [];
+  let tenMegabytes = false;
   for (const f of fields) {
     const name = dotted(f.path);
     const field = f.reportedAs ?? fieldPattern(f.path);
@@ -396,7 +398,16 @@ export function fieldCases(fields: Field[]): Case[] {
         const accept = legal ? (f.mayRefuse ? "may" : "must") : "never";
         cases.push({ category: p.category, label: `${name} = ${JSON.stringify(p.value)}`, build: put(wrap(p.value)), field: legal ? null : field, accept, stored: legal ? stored(wrap(p.value)) : undefined });
       }
-      cases.push({ category: "10 MB string", label: name, build: put(wrap(TEN_MB)), field });
+      // Long text: the longest legal in astral letters (two UTF-16 units each, one character to
+      // zod and the database) and one past it in combining marks; 10 MB in the first text field.
+      if (Number.isFinite(max) && textKind !== "strict") {
+        const longest = "𝔖".repeat(max - [...(f.affix ?? "")].length) + (f.affix ?? "");
+        const legal = legalText(textKind, longest, max);
+        cases.push({ category: "unicode", label: `${name} = ${max} astral letters`, build: put(wrap(longest)), field: legal ? null : field, accept: legal ? (f.mayRefuse ? "may" : "must") : "never", stored: legal ? stored(wrap(longest)) : undefined });
+        cases.push({ category: "unicode", label: `${name} = ${max + 1} characters of combining marks`, build: put(wrap(`a${"\u0301".repeat(max)}`)), field });
+      }
+      if (!tenMegabytes) cases.push({ category: "10 MB string", label: name, build: put(wrap(TEN_MB)), field });
+      tenMegabytes = true;
       for (const l of LONE_SURROGATES) {
         cases.push({ category: "lone surrogate", label: `${name}: ${l.label}`, build: raw(f.type === "list" ? `[${l.json}]` : l.json), field });
       }
@@ -549,7 +560,7 @@ export class Hostile {
       if (spec.renew !== false) sample = await spec.sample();
     };
     await fc.assert(
-      fc.asyncProperty(opts.bodies ?? fc.jsonValue(), async (body) => {
+      fc.asyncProperty(opts.bodies ?? fc.oneof(fc.anything(), fc.object(), fc.jsonValue()), async (body) => {
         const raw = opts.raw ? String(body) : JSON.stringify(body);
         await one({ ...sample, body: undefined, rawBody: raw ?? "" }, `body ${JSON.stringify(String(raw).slice(0, 80))}`);
       }),
