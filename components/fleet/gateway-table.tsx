@@ -29,7 +29,8 @@ function UnknownTags({ tags }: Readonly<{ tags: string[] }>) {
       <summary className="cursor-pointer whitespace-nowrap text-caution">
         {tags.length} not in inventory
       </summary>
-      <ul className="mt-1 max-h-40 overflow-y-auto font-mono text-micro" aria-label="Tags the gateway sees that the inventory lacks">
+      {/* Focusable so the list can be scrolled from the keyboard. */}
+      <ul className="mt-1 max-h-40 overflow-y-auto font-mono text-micro" aria-label="Tags the gateway sees that the inventory lacks" tabIndex={0}>
         {tags.map((t) => (
           <li key={t}>{t}</li>
         ))}
