@@ -5,35 +5,10 @@ import path from "node:path";
 import { promisify } from "node:util";
 import { parse } from "yaml";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { BASE_URL, DEMO, launch, signIn } from "./browser";
+import { BASE_URL, DEMO, launch, signIn, signInOverHttp } from "./browser";
 
 const SITE = "fenwick-creamery";
 const GATEWAY = "fw-gw-01";
-
-/** Signs in through next-auth's credentials endpoint over plain HTTP; returns the Cookie header of the session. */
-async function signInOverHttp(who: { email: string; password: string }): Promise<string> {
-  const jar = new Map<string, string>();
-  const keep = (res: Response) => {
-    for (const c of res.headers.getSetCookie()) {
-      const [pair] = c.split(";");
-      const at = pair.indexOf("=");
-      jar.set(pair.slice(0, at), pair.slice(at + 1));
-    }
-  };
-  const cookie = () => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
-  const csrfRes = await fetch(`${BASE_URL}/api/auth/csrf`);
-  keep(csrfRes);
-  const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
-  const res = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
-    method: "POST",
-    redirect: "manual",
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie: cookie() },
-    body: new URLSearchParams({ csrfToken, email: who.email, password: who.password, json: "true" }),
-  });
-  keep(res);
-  if (![...jar.keys()].some((k) => k.endsWith("next-auth.session-token"))) throw new Error(`signing in as ${who.email} gave no session (HTTP ${res.status})`);
-  return cookie();
-}
 
 /** 600 s at 1 Hz for each tag: a slow wave with a little noise, good quality (ISO times, UTC). */
 function inputCsv(tags: string[], start: number): { text: string; rows: number } {

@@ -1,6 +1,6 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it, vi } from "vitest";
-import { BASE_URL, DEMO, launch, signIn } from "./browser";
+import { BASE_URL, DEMO, launch, signIn, signInOverHttp } from "./browser";
 
 // Web hardening against the production build: security headers on pages, the API and the
 // gateway API; the nonce CSP working in the browser (no violations, the preview worker
@@ -10,30 +10,6 @@ import { BASE_URL, DEMO, launch, signIn } from "./browser";
 vi.mock("server-only", () => ({}));
 
 const EVIL = "https://evil.example";
-
-/** Signs in through next-auth's credentials endpoint; returns the Cookie header of the session. */
-async function sessionCookie(who: { email: string; password: string }): Promise<string> {
-  const jar = new Map<string, string>();
-  const keep = (res: Response) => {
-    for (const c of res.headers.getSetCookie()) {
-      const [pair] = c.split(";");
-      jar.set(pair.slice(0, pair.indexOf("=")), pair.slice(pair.indexOf("=") + 1));
-    }
-  };
-  const cookie = () => [...jar].map(([k, v]) => `${k}=${v}`).join("; ");
-  const csrf = await fetch(`${BASE_URL}/api/auth/csrf`);
-  keep(csrf);
-  const { csrfToken } = (await csrf.json()) as { csrfToken: string };
-  const res = await fetch(`${BASE_URL}/api/auth/callback/credentials`, {
-    method: "POST",
-    redirect: "manual",
-    headers: { "content-type": "application/x-www-form-urlencoded", cookie: cookie() },
-    body: new URLSearchParams({ csrfToken, email: who.email, password: who.password, json: "true" }),
-  });
-  keep(res);
-  if (![...jar.keys()].some((k) => k.endsWith("next-auth.session-token"))) throw new Error(`no session for ${who.email} (HTTP ${res.status})`);
-  return cookie();
-}
 
 function expectCommonHeaders(res: Response, label: string) {
   expect(res.headers.get("x-frame-options"), label).toBe("DENY");
@@ -49,7 +25,7 @@ const nonceOf = (csp: string | null) => /'nonce-([^']+)'/.exec(csp ?? "")?.[1];
 describe("security headers", () => {
   let admin: string;
   beforeAll(async () => {
-    admin = await sessionCookie(DEMO.admin);
+    admin = await signInOverHttp(DEMO.admin);
   });
 
   it("gives every page a CSP with a fresh nonce that Next puts on each of its scripts", async () => {
@@ -132,7 +108,7 @@ describe("security headers", () => {
 describe("cross-site requests over HTTP", () => {
   let admin: string;
   beforeAll(async () => {
-    admin = await sessionCookie(DEMO.admin);
+    admin = await signInOverHttp(DEMO.admin);
   });
 
   const siteBody = (slug: string) => ({ name: `Hardening ${slug}`, slug, timeZone: "Europe/London", uplinkBudgetKbps: 64, storagePricePerGbMonth: 0.02, retentionMonths: 12, defaultHandling: "pass-through" });
