@@ -22,6 +22,7 @@ const MIN_CASES = 600;
 const SLOW = 120_000;
 
 let admin: User;
+let before: User[];
 let fx: Fixture;
 
 const siteFields: Field[] = [
@@ -65,6 +66,8 @@ describe("hostile input: admin routes", () => {
   beforeAll(async () => {
     admin = await createUser({ role: "admin" });
     fx = await makeFixture();
+    // The accounts that were there before (the demo administrator among them) must come out untouched.
+    before = await User.findAll({ attributes: ["id", "email", "name", "role", "active", "passwordHash"], order: [["id", "ASC"]], raw: true });
   });
 
   it("covers every write route of the permissions table across the hostile files", () => {
@@ -247,6 +250,11 @@ describe("hostile input: admin routes", () => {
       expect.soft(res.status, `estimate for ${JSON.stringify(edge)}`).toBe(200);
     }
   }, SLOW);
+
+  it("leaves the accounts that were there before untouched", async () => {
+    const now = await User.findAll({ where: { id: before.map((u) => u.id) }, attributes: ["id", "email", "name", "role", "active", "passwordHash"], order: [["id", "ASC"]], raw: true });
+    expect(now).toEqual(before);
+  });
 
   it("counts its cases", () => {
     const total = h.summary();

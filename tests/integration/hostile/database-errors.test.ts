@@ -34,7 +34,7 @@ describe("hostile input: database errors a schema missed", () => {
       { label: "a poll of 1 s (CHECK gateways_poll_range)", errno: 4025, sql: "UPDATE gateways SET poll_seconds = 1 WHERE id = ?", args: [gw.id], mentions: "gateways_poll_range" },
     ];
     for (const c of cases) {
-      await h.action(c.label, "huge number", async () => {
+      await h.action(c.label, "database error", async () => {
         const before = await countRows();
         const err = await failure(c.sql, c.args);
         expect((err as { parent?: { errno?: number } }).parent?.errno, c.label).toBe(c.errno);

@@ -114,6 +114,7 @@ export type Category =
   | "binary"
   | "path param"
   | "stored data"
+  | "database error"
   | "fast-check";
 
 export const TEN_MB = "x".repeat(10 * 1024 * 1024);
@@ -263,6 +264,8 @@ export type Field = {
   mayRefuse?: boolean;
   /** Appended to each catalogue text, where the value must be unique across the store (profile names). */
   affix?: string;
+  /** Not replaced by fast-check: any legal value would act on a real record (another user's id). */
+  noFuzz?: boolean;
 };
 
 export type Req = {
