@@ -41,6 +41,8 @@ describe("workbench: try a profile on sample data in the browser", () => {
     await page.getByRole("link", { name: "Workbench" }).click();
     await page.waitForURL(`${BASE_URL}/workbench`);
     await page.getByRole("heading", { name: "Workbench" }).waitFor();
+    // The first site in the list is the default; other tests add sites whose names sort first.
+    await page.getByLabel("Site", { exact: true }).selectOption({ label: "Fenwick Creamery" });
 
     await page.getByLabel("Profile", { exact: true }).selectOption({ label: "Temperature shape (analog)" });
     await page.getByLabel(/^Deviation \(degC\)/).waitFor();
