@@ -192,7 +192,6 @@ async function startDatabase({ dataDir, port, databases, password }) {
     ];
     if (mode === "test") args.push("--innodb-flush-log-at-trx-commit=0", "--innodb-doublewrite=0", "--sync-binlog=0");
     if (isRoot) args.push("--user=root");
-    fs.writeFileSync(path.join(dataDir, "mariadb.args.json"), JSON.stringify({ binary: findBinary("mariadbd"), args, port, pidFile }));
     proc = spawn(findBinary("mariadbd"), args, { cwd: root, stdio: "ignore" });
     let exited = null;
     proc.once("exit", (code) => (exited = code ?? -1));
@@ -205,6 +204,9 @@ async function startDatabase({ dataDir, port, databases, password }) {
       if (Date.now() > deadline) throw new Error(`mariadbd did not answer on port ${port} within 60 s; see ${errLog}`);
       await sleep(200);
     }
+    // Recorded once it answers (a failed start must not overwrite it): the CLI finds the port
+    // here, and the system tests restart the server with exactly this command line.
+    fs.writeFileSync(path.join(dataDir, "mariadb.args.json"), JSON.stringify({ binary: findBinary("mariadbd"), args, port, pidFile }));
     log(`MariaDB is up on 127.0.0.1:${port}`);
   }
 
@@ -221,6 +223,22 @@ async function startDatabase({ dataDir, port, databases, password }) {
   });
   if (r.status !== 0) throw new Error(`could not create the database and its user:\n${r.stderr}`);
   return { proc, owned, sock, pidFile, port };
+}
+
+/**
+ * The port of the MariaDB already running on this data directory (started by `npm start`
+ * with whatever SLUICE_DB_PORT it was given), or null: a second server on the same data
+ * directory would only fail on InnoDB's lock.
+ */
+async function runningDatabasePort(dataDir) {
+  try {
+    const pid = Number(fs.readFileSync(path.join(dataDir, "mariadb.pid"), "utf8").trim());
+    process.kill(pid, 0);
+    const { port } = JSON.parse(fs.readFileSync(path.join(dataDir, "mariadb.args.json"), "utf8"));
+    return (await portAnswers(port)) ? port : null;
+  } catch {
+    return null;
+  }
 }
 
 async function stopDatabase(handle) {
@@ -602,7 +620,7 @@ async function cli() {
   const env = { ...process.env, SLUICE_DATA_DIR: dataDir, NEXT_TELEMETRY_DISABLED: "1" };
   if (!process.env.DATABASE_URL) {
     const secrets = readSecrets(dataDir);
-    const port = Number(process.env.SLUICE_DB_PORT ?? 3307);
+    const port = Number(process.env.SLUICE_DB_PORT ?? (await runningDatabasePort(dataDir)) ?? 3307);
     env.DATABASE_URL = dbUrl(port, "sluice", secrets.dbPassword);
     if (!(await portAnswers(port))) {
       db = await startDatabase({ dataDir, port, databases: ["sluice"], password: secrets.dbPassword });
