@@ -15,6 +15,47 @@ function referenceIndices(s: Series, threshold: number): number[] {
   return downsampleLttb.processData(data, threshold).map((p) => index.get(p) as number);
 }
 
+/**
+ * The reference function's loop (largestTriangleThreeBuckets) on typed arrays, except that a
+ * bucket in which no area compares (all NaN) keeps its first sample instead of the previous
+ * bucket's point.
+ */
+function plainLttb(s: Series, threshold: number): number[] {
+  const n = s.t.length;
+  const every = (n - 2) / (threshold - 2);
+  const kept = [0];
+  let a = 0;
+  for (let i = 0; i < threshold - 2; i++) {
+    let avgRangeStart = Math.floor((i + 1) * every) + 1;
+    let avgRangeEnd = Math.floor((i + 2) * every) + 1;
+    avgRangeEnd = avgRangeEnd < n ? avgRangeEnd : n;
+    const avgRangeLength = avgRangeEnd - avgRangeStart;
+    let avgX = 0;
+    let avgY = 0;
+    for (; avgRangeStart < avgRangeEnd; avgRangeStart++) {
+      avgX += s.t[avgRangeStart];
+      avgY += s.v[avgRangeStart];
+    }
+    avgX /= avgRangeLength;
+    avgY /= avgRangeLength;
+    const rangeOffs = Math.floor(i * every) + 1;
+    const rangeTo = Math.floor((i + 1) * every) + 1;
+    let maxArea = -1;
+    let next = rangeOffs;
+    for (let j = rangeOffs; j < rangeTo; j++) {
+      const area = Math.abs((s.t[a] - avgX) * (s.v[j] - s.v[a]) - (s.t[a] - s.t[j]) * (avgY - s.v[a])) * 0.5;
+      if (area > maxArea) {
+        maxArea = area;
+        next = j;
+      }
+    }
+    kept.push(next);
+    a = next;
+  }
+  kept.push(n - 1);
+  return kept;
+}
+
 /** Pairs (n, threshold) where floor((threshold − 2)·every) + 1 falls short of n − 1. */
 function roundingEdges(count: number): [number, number][] {
   const edges: [number, number][] = [];
@@ -56,6 +97,32 @@ describe("lttb — identical to the thesis author's reference function (downsamp
         const s = randomWalk(n, 1_000 * n + seed, { spikes: 0.2 });
         expect(ints(lttb(s, { points: threshold }))).toEqual(referenceIndices(s, threshold));
       }
+    }
+  });
+
+  it("with ties, and with finite values whose bucket sums overflow (checked per bucket on the sums, so this must not be refused)", () => {
+    // Ties: a flat series and a square wave, so that the first sample of equal area must win.
+    const flat = unitSeries(Array.from({ length: 101 }, () => 3));
+    const square = unitSeries(Array.from({ length: 101 }, (_, i) => (Math.floor(i / 5) % 2 ? 1 : -1)));
+    for (const s of [flat, square]) for (const threshold of [3, 7, 12, 40]) expect(ints(lttb(s, { points: threshold }))).toEqual(referenceIndices(s, threshold));
+    // Values near the largest double: the averages overflow to ±Infinity, as they do in the
+    // reference's arithmetic. Where every area of a bucket is then NaN, the reference keeps its
+    // previous point again (indices repeat); ours keeps the bucket's first sample, so the
+    // comparison here is with the reference's loop written out with that one difference.
+    const rand = mulberry32(9);
+    const huge = unitSeries(Array.from({ length: 500 }, () => (rand() < 0.5 ? -1 : 1) * 1.7e308 * (0.6 + 0.4 * rand())));
+    const late = { t: Float64Array.from({ length: 200 }, (_, i) => 1.7e308 * (0.5 + i / 400)), v: huge.v.slice(0, 200) };
+    for (const [s, threshold] of [[huge, 5], [huge, 23], [huge, 100], [late, 17]] as const) {
+      expect(ints(lttb(s, { points: threshold }))).toEqual(plainLttb(s, threshold));
+    }
+    // …while a real infinity is still refused, wherever it is.
+    for (const bad of [0, 1, 250, 498, 499]) {
+      const inf = { t: huge.t.slice(), v: huge.v.slice() };
+      inf.v[bad] = bad % 2 ? Number.POSITIVE_INFINITY : Number.NEGATIVE_INFINITY;
+      expect(() => lttb(inf, { points: 23 })).toThrow(new RegExp(`index ${bad}\\b|\\b${bad}\\b`));
+      const endless = { t: huge.t.slice(), v: huge.v.slice() };
+      endless.t[499] = Number.POSITIVE_INFINITY;
+      expect(() => lttb(endless, { points: 23 })).toThrow(/499/);
     }
   });
 
