@@ -2,7 +2,7 @@
 
 import { zodResolver } from "@hookform/resolvers/zod";
 import { useRouter } from "next/navigation";
-import { useRef, useState } from "react";
+import { useState } from "react";
 import { useForm } from "react-hook-form";
 import { toast } from "sonner";
 import { issueGatewayTokenAction, revokeGatewayTokenAction } from "@/app/(console)/sites/[site]/gateways/[gateway]/actions";
@@ -11,6 +11,7 @@ import { Button } from "@/components/ui/button";
 import { ConfirmButton } from "@/components/ui/confirm-button";
 import { Field, inputClass } from "@/components/ui/field";
 import { showFailure } from "@/components/ui/form-error";
+import { SecretReveal } from "@/components/ui/secret-reveal";
 import type { GatewayTokenView, IssuedToken } from "@/lib/data/gateway-tokens";
 import { issueTokenSchema, type IssueTokenInput, type IssueTokenValues } from "@/schemas/gateway-token";
 
@@ -48,7 +49,21 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
         <em>last used</em> time, revoke the old one. Until it is revoked the old token keeps working, so the gateway never goes without one.
       </p>
 
-      {issued ? <IssuedTokenReveal issued={issued} onDone={() => setIssued(null)} /> : null}
+      {issued ? (
+        <SecretReveal
+          className="mb-4"
+          testId="issued-token"
+          label={`New token ${issued.prefix}…${issued.label ? ` (${issued.label})` : ""}`}
+          secret={issued.token}
+          onDone={() => setIssued(null)}
+          note={
+            <>
+              <strong className="font-medium text-caution">Shown only now.</strong> Copy it into the gateway&apos;s configuration; Sluice keeps only a hash and
+              cannot show it again. If it is lost, issue another and revoke this one.
+            </>
+          }
+        />
+      ) : null}
 
       <form onSubmit={onSubmit} noValidate className="mb-4 grid gap-3 sm:grid-cols-[minmax(0,24rem)_auto] sm:items-start sm:justify-start">
         <Field label="Token label" htmlFor="token-label" error={formState.errors.label?.message} hint="Optional: where it is deployed or why, e.g. “edge box, 2027 rotation”.">
@@ -113,52 +128,6 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
         </>
       )}
     </section>
-  );
-}
-
-/** The new token in a read-only field with a copy button; it lives only in this page's memory. */
-function IssuedTokenReveal({ issued, onDone }: Readonly<{ issued: IssuedToken; onDone: () => void }>) {
-  const field = useRef<HTMLInputElement>(null);
-  const [copied, setCopied] = useState(false);
-  async function copy() {
-    try {
-      await navigator.clipboard.writeText(issued.token);
-      setCopied(true);
-    } catch {
-      // No clipboard access (a plain-http console, for one): leave it selected for Ctrl+C.
-      field.current?.select();
-      toast.message("The token is selected: press Ctrl+C (⌘C) to copy it.");
-    }
-  }
-  return (
-    <div role="status" className="mb-4 rounded-panel border border-caution bg-caution-soft p-4">
-      <label htmlFor="issued-token" className="text-label font-medium">
-        New token {issued.prefix}…{issued.label ? ` (${issued.label})` : ""}
-      </label>
-      <p className="mt-1 text-micro text-ink-soft">
-        <strong className="font-medium text-caution">Shown only now.</strong> Copy it into the gateway&apos;s configuration; Sluice keeps only a hash and cannot
-        show it again. If it is lost, issue another and revoke this one.
-      </p>
-      <div className="mt-2 flex flex-wrap items-center gap-2">
-        <input
-          ref={field}
-          id="issued-token"
-          data-testid="issued-token"
-          readOnly
-          value={issued.token}
-          spellCheck={false}
-          autoComplete="off"
-          onFocus={(e) => e.currentTarget.select()}
-          className={`${inputClass} min-w-0 flex-1 font-mono sm:min-w-[30rem]`}
-        />
-        <Button tone="quiet" onClick={copy}>
-          {copied ? "Copied" : "Copy"}
-        </Button>
-        <Button tone="quiet" onClick={onDone}>
-          Done
-        </Button>
-      </div>
-    </div>
   );
 }
 
