@@ -2,7 +2,7 @@ import Link from "next/link";
 import { AuditDiff } from "@/components/audit/audit-diff";
 import { PageHeader } from "@/components/shell/page-header";
 import { EmptyState } from "@/components/ui/empty-state";
-import { inputClass } from "@/components/ui/field";
+import { FilterForm, FilterInput, FilterSelect } from "@/components/ui/filter-form";
 import { currentActor } from "@/lib/auth/guard";
 import { auditFacets, listAudit } from "@/lib/data/audit";
 import { listSites } from "@/lib/data/sites";
@@ -39,59 +39,13 @@ export default async function AuditPage({ searchParams }: Readonly<Props>) {
         crumbs={[{ href: "/", label: "Overview" }, { label: "Audit log" }]}
         lead="Every write, with who made it, when, and the record before and after."
       />
-      <form method="get" className="mb-4 grid gap-3 rounded-panel border border-panel-line bg-panel p-4 sm:grid-cols-3 lg:grid-cols-6 lg:items-end" aria-label="Filter the audit log">
-        <label className="flex flex-col gap-1 text-label text-ink-soft">
-          Site
-          <select name="site" defaultValue={query.site ?? ""} className={inputClass}>
-            <option value="">any site</option>
-            {sites.map((s) => (
-              <option key={s.slug} value={s.slug}>
-                {s.name}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="flex flex-col gap-1 text-label text-ink-soft">
-          User
-          <select name="user" defaultValue={query.user ?? ""} className={inputClass}>
-            <option value="">anyone</option>
-            {facets.users.map((u) => (
-              <option key={u} value={u}>
-                {u}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="flex flex-col gap-1 text-label text-ink-soft">
-          Action
-          <select name="action" defaultValue={query.action ?? ""} className={inputClass}>
-            <option value="">any action</option>
-            {facets.actions.map((a) => (
-              <option key={a} value={a}>
-                {a}
-              </option>
-            ))}
-          </select>
-        </label>
-        <label className="flex flex-col gap-1 text-label text-ink-soft">
-          From (UTC)
-          <input type="datetime-local" name="from" defaultValue={query.from ?? ""} className={inputClass} />
-        </label>
-        <label className="flex flex-col gap-1 text-label text-ink-soft">
-          To (UTC)
-          <input type="datetime-local" name="to" defaultValue={query.to ?? ""} className={inputClass} />
-        </label>
-        <div className="flex gap-2">
-          <button type="submit" className="min-h-9 rounded-panel bg-weir-600 px-3 text-label font-medium text-white hover:bg-weir-700">
-            Filter
-          </button>
-          {FILTERS.some((f) => query[f]) ? (
-            <Link href="/audit" className="min-h-9 rounded-panel border border-panel-line px-3 py-2 text-label">
-              Clear
-            </Link>
-          ) : null}
-        </div>
-      </form>
+      <FilterForm action="/audit" label="Filter the audit log" columns="sm:grid-cols-3 lg:grid-cols-6" filtered={FILTERS.some((f) => query[f])}>
+        <FilterSelect label="Site" name="site" value={query.site} anyLabel="any site" options={sites.map((s) => ({ value: s.slug, label: s.name }))} />
+        <FilterSelect label="User" name="user" value={query.user} anyLabel="anyone" options={facets.users} />
+        <FilterSelect label="Action" name="action" value={query.action} anyLabel="any action" options={facets.actions} />
+        <FilterInput label="From (UTC)" name="from" type="datetime-local" value={query.from} />
+        <FilterInput label="To (UTC)" name="to" type="datetime-local" value={query.to} />
+      </FilterForm>
       {problem ? (
         <p role="alert" className="mb-4 rounded-panel bg-caution-soft px-3 py-2 text-label">
           {problem}
