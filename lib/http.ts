@@ -4,6 +4,7 @@ import { ConnectionError, DatabaseError, ForeignKeyConstraintError, UniqueConstr
 import { ZodError } from "zod";
 import { env } from "@/lib/env";
 import { checkCrossSite } from "@/lib/security/origin";
+import { idSchema } from "@/schemas/site";
 
 /** An error that knows its HTTP status and, for bad input, the field at fault. */
 export class HttpError extends Error {
@@ -16,6 +17,16 @@ export class HttpError extends Error {
   ) {
     super(message);
   }
+}
+
+/**
+ * An id from the URL (a path parameter or a query parameter): a positive integer, else a 422
+ * naming `field` — the same word a 404 for that record names ("group", "profile", …).
+ */
+export function urlId(value: string | null | undefined, field: string): number {
+  const parsed = idSchema.safeParse(value);
+  if (parsed.success) return parsed.data;
+  throw new ZodError(parsed.error.issues.map((i) => ({ ...i, path: [field, ...i.path] })));
 }
 
 export type ErrorBody = { error: string; field?: string; issues?: { field: string; message: string }[] };

@@ -13,7 +13,7 @@ import { presentGateway, presentSite } from "@/lib/data/sites";
 import { Gateway, GatewayToken, Site, User, sequelize } from "@/models";
 import { createGateway, createGatewayToken, createUser } from "../../factories";
 import { ROUTE_SAMPLES, gatewayBody, makeFixture, siteBody, type Fixture } from "../matrix/samples";
-import { AREAS, BAD_PARAMS, Hostile, bodyCases, fieldCases, rowOf, send, writeRoutes, type Case, type Field, type RouteSpec, type Sample } from "./harness";
+import { AREAS, Hostile, bodyCases, fieldCases, paramCases, rowOf, send, writeRoutes, type Case, type Field, type RouteSpec, type Sample } from "./harness";
 
 // Hostile input against the admin routes: users, sites, gateways and gateway tokens.
 
@@ -44,13 +44,6 @@ const gatewayFields: Field[] = [
   { path: ["description"], type: "text", text: "text", max: 500 },
   { path: ["pollSeconds"], type: "number", range: [5, 86_400], int: true, required: true },
 ];
-
-/** Path parameter cases: each parameter in turn names nothing. */
-function paramCases(names: string[]): Case[] {
-  return names.flatMap((name) =>
-    BAD_PARAMS.map((v): Case => ({ category: "path param", label: `${name} = ${JSON.stringify(v.slice(0, 40))}`, build: (s) => ({ ...s, params: { ...s.params, [name]: v } }) })),
-  );
-}
 
 const siteBySlugRow = async (slug: string) =>
   (await sequelize.query<Record<string, unknown>>("SELECT * FROM sites WHERE slug = ?", { replacements: [slug], type: QueryTypes.SELECT }))[0] ?? null;

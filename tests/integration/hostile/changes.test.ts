@@ -13,7 +13,7 @@ import { packSeries } from "@/lib/samples/storage";
 import { Assignment, Change, ProfileRevision, SampleSet, type User } from "@/models";
 import { createGateway, createGroup, createProfile, createSite, createTag, createUser, ctx } from "../../factories";
 import { ROUTE_SAMPLES, makeFixture, type Fixture } from "../matrix/samples";
-import { AREAS, BAD_PARAMS, Hostile, bodyCases, fieldCases, rowOf, send, type Case, type Field, type RouteSpec, type Sample } from "./harness";
+import { AREAS, Hostile, bodyCases, fieldCases, paramCases, rowOf, send, type Case, type Field, type RouteSpec, type Sample } from "./harness";
 
 // Hostile input against assignments, the change workflow (submit, approve, reject,
 // release) and rollbacks; then legal extremes stored in a profile carried through the
@@ -27,12 +27,6 @@ let engineer: User;
 let admin: User;
 let reviewer: User;
 let fx: Fixture;
-
-function paramCases(names: string[]): Case[] {
-  return names.flatMap((name) =>
-    BAD_PARAMS.map((v): Case => ({ category: "path param", label: `${name} = ${JSON.stringify(v.slice(0, 40))}`, build: (s) => ({ ...s, params: { ...s.params, [name]: v } }) })),
-  );
-}
 
 const sample = (key: string) => () => ROUTE_SAMPLES[key](fx) as Promise<Sample>;
 const changeRow = async (s: Sample) => rowOf("changes", Number(s.params!.changeId));

@@ -215,6 +215,24 @@ export const BAD_PARAMS = [
   "x".repeat(10_000),
 ];
 
+/**
+ * The field a refusal of a bad path parameter names: the record's word, as its 404 does
+ * ("group" for groupId); a slug or other parameter by its own name.
+ */
+const PARAM_FIELDS: Record<string, string> = { profileId: "profile", changeId: "change", groupId: "group", tagId: "tag", sampleSetId: "sampleSet", number: "release" };
+
+/** Path parameter cases: each parameter in turn names nothing, and the refusal names it. */
+export function paramCases(names: string[]): Case[] {
+  return names.flatMap((name) =>
+    BAD_PARAMS.map((v): Case => ({
+      category: "path param",
+      label: `${name} = ${JSON.stringify(v.slice(0, 40))}`,
+      build: (s) => ({ ...s, params: { ...s.params, [name]: v } }),
+      field: PARAM_FIELDS[name] ?? name,
+    })),
+  );
+}
+
 // ---------------------------------------------------------------- legality of text
 
 /** No unpaired UTF-16 surrogate (String.prototype.isWellFormed, which this TypeScript target does not declare). */

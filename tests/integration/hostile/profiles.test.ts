@@ -8,7 +8,7 @@ import { POST as duplicateRoute } from "@/app/api/profiles/[profileId]/duplicate
 import { profileToYaml } from "@/lib/profiles/yaml";
 import { ProfileRevision, ReductionProfile, type User } from "@/models";
 import { createProfile, createUser, profileDocument } from "../../factories";
-import { AREAS, BAD_PARAMS, Hostile, TEN_MB, bodyCases, fieldCases, rowOf, utf16String, type Case, type Field, type RouteSpec, type Sample } from "./harness";
+import { AREAS, Hostile, TEN_MB, bodyCases, fieldCases, paramCases, rowOf, utf16String, type Case, type Field, type RouteSpec, type Sample } from "./harness";
 
 // Hostile input against the profile library: create, new revision, archive, duplicate
 // (JSON documents) and the YAML import.
@@ -42,12 +42,6 @@ const latest = async (profileId: number) => {
   const r = p && (await ProfileRevision.findOne({ where: { profileId, number: p.latestRevision } }));
   return r && { document: r.document, note: r.note };
 };
-
-function paramCases(names: string[]): Case[] {
-  return names.flatMap((name) =>
-    BAD_PARAMS.map((v): Case => ({ category: "path param", label: `${name} = ${JSON.stringify(v.slice(0, 40))}`, build: (s) => ({ ...s, params: { ...s.params, [name]: v } }) })),
-  );
-}
 
 const fresh = async (body: (doc: ReturnType<typeof profileDocument>) => unknown): Promise<Sample> => {
   const { profile, revision } = await createProfile();

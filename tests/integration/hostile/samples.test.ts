@@ -8,7 +8,7 @@ import { GET as fleetEstimateRoute } from "@/app/api/estimates/route";
 import { WIRE_MAGIC, decodeSeriesWire, encodeSeriesWire } from "@/lib/samples/wire";
 import { SampleSet, type User } from "@/models";
 import { createAssignment, createGateway, createGroup, createProfile, createSampleSet, createSite, createTag, createUser, ctx } from "../../factories";
-import { AREAS, BAD_PARAMS, CONTROL_TEXT, Hostile, LINE_TEXT, ODD_TEXT, TEN_MB, legalText, rowOf, send, type Case, type RouteSpec, type Sample } from "./harness";
+import { AREAS, CONTROL_TEXT, Hostile, LINE_TEXT, ODD_TEXT, TEN_MB, legalText, paramCases, rowOf, send, type Case, type RouteSpec, type Sample } from "./harness";
 
 // Hostile input against sample-set uploads (our binary wire format, lib/samples/wire.ts,
 // with the tag context in the query) and sample-set deletion; then the estimates and the
@@ -194,9 +194,7 @@ describe("hostile input: sample sets and estimates", () => {
   }, SLOW);
 
   it("POST .../samples: the path", async () => {
-    const cases: Case[] = ["site", "groupId"].flatMap((name) =>
-      BAD_PARAMS.map((v): Case => ({ category: "path param", label: `${name} = ${JSON.stringify(v.slice(0, 40))}`, build: (s) => ({ ...s, params: { ...s.params, [name]: v } }) })),
-    );
+    const cases: Case[] = paramCases(["site", "groupId"]);
     const other = await createGroup(await createSite());
     cases.push({ category: "path param", label: "a group of another site", build: (s) => ({ ...s, params: { ...s.params, groupId: String(other.id) } }), field: "group" });
     await h.route(spec(), cases);
@@ -210,10 +208,7 @@ describe("hostile input: sample sets and estimates", () => {
       sample: async () => ({ path: "/", params: { sampleSetId: String((await createSampleSet(site, (await createTag(site, await createGateway(site))))).id) } }),
       watch: async (s) => rowOf("sample_sets", Number(s.params!.sampleSetId)),
     };
-    await h.route(
-      del,
-      BAD_PARAMS.map((v): Case => ({ category: "path param", label: `sampleSetId = ${JSON.stringify(v.slice(0, 40))}`, build: (s) => ({ ...s, params: { sampleSetId: v } }) })),
-    );
+    await h.route(del, paramCases(["sampleSetId"]));
   }, SLOW);
 
   it("answers the data and the estimates for sets at the legal extremes", async () => {

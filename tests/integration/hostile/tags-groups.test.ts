@@ -11,7 +11,7 @@ import { loadWorkingConfig } from "@/lib/data/groups";
 import { Tag, TagGroup, TagGroupRule, type User } from "@/models";
 import { createGateway, createGroup, createSite, createTag, createUser } from "../../factories";
 import { ROUTE_SAMPLES, groupBody, makeFixture, tagBody, type Fixture } from "../matrix/samples";
-import { AREAS, BAD_PARAMS, Hostile, TEN_MB, bodyCases, fieldCases, rowOf, type Case, type Field, type RouteSpec, type Sample } from "./harness";
+import { AREAS, Hostile, TEN_MB, bodyCases, fieldCases, paramCases, rowOf, type Case, type Field, type RouteSpec, type Sample } from "./harness";
 
 // Hostile input against the tag inventory (one tag, bulk delete, JSON and CSV import) and
 // tag groups (create, edit, delete, order, preview) and the draft discard.
@@ -65,12 +65,6 @@ const readGroup = async (siteId: number, id: number) => {
 };
 
 const groupRows = async (id: number) => ({ group: await rowOf("tag_groups", id), rules: await TagGroupRule.findAll({ where: { groupId: id }, raw: true, order: [["position", "ASC"]] }) });
-
-function paramCases(names: string[]): Case[] {
-  return names.flatMap((name) =>
-    BAD_PARAMS.map((v): Case => ({ category: "path param", label: `${name} = ${JSON.stringify(v.slice(0, 40))}`, build: (s) => ({ ...s, params: { ...s.params, [name]: v } }) })),
-  );
-}
 
 /** A list of whole numbers (ids) given odd items. */
 function idListCases(path: string[], empty: "refuse" | "may" = "refuse"): Case[] {
@@ -161,7 +155,7 @@ describe("hostile input: tags, groups, CSV import and draft", () => {
 
   it("DELETE /api/sites/[site]/tags/[tagId]", async () => {
     const spec: RouteSpec = { key: "DELETE /api/sites/[site]/tags/[tagId]", handler: deleteTagRoute, user: engineer, sample: ROUTE_SAMPLES["DELETE /api/sites/[site]/tags/[tagId]"].bind(null, fx) as () => Promise<Sample> };
-    await h.route(spec, [...paramCases(["tagId", "site"]), { category: "path param", label: "a tag of another site", build: (s) => ({ ...s, params: { ...s.params, tagId: String(otherSiteTag) } }), field: "ids" }]);
+    await h.route(spec, [...paramCases(["tagId", "site"]), { category: "path param", label: "a tag of another site", build: (s) => ({ ...s, params: { ...s.params, tagId: String(otherSiteTag) } }), field: "tag" }]);
   }, SLOW);
 
   it("POST /api/sites/[site]/tags/import (JSON rows)", async () => {

@@ -1,7 +1,6 @@
 import { authorize } from "@/lib/auth/guard";
 import { exportProfile } from "@/lib/data/profiles";
-import { route } from "@/lib/http";
-import { idSchema } from "@/schemas/site";
+import { route, urlId } from "@/lib/http";
 
 type Ctx = { params: Promise<{ profileId: string }> };
 
@@ -9,7 +8,7 @@ type Ctx = { params: Promise<{ profileId: string }> };
 export const GET = route<Ctx>(async (req, { params }) => {
   const actor = await authorize("read", req);
   const revision = new URL(req.url).searchParams.get("revision");
-  const { filename, text } = await exportProfile(actor, idSchema.parse((await params).profileId), revision === null ? undefined : idSchema.parse(revision));
+  const { filename, text } = await exportProfile(actor, urlId((await params).profileId, "profile"), revision === null ? undefined : urlId(revision, "revision"));
   return new Response(text, {
     headers: { "Content-Type": "application/yaml; charset=utf-8", "Content-Disposition": `attachment; filename="${filename}"`, "Cache-Control": "no-store" },
   });

@@ -1,8 +1,7 @@
 import { NextResponse } from "next/server";
 import { authorize } from "@/lib/auth/guard";
 import { getRevision } from "@/lib/data/profiles";
-import { route } from "@/lib/http";
-import { idSchema } from "@/schemas/site";
+import { route, urlId } from "@/lib/http";
 
 type Ctx = { params: Promise<{ profileId: string; revision: string }> };
 
@@ -10,5 +9,5 @@ type Ctx = { params: Promise<{ profileId: string; revision: string }> };
 export const GET = route<Ctx>(async (req, { params }) => {
   const actor = await authorize("read", req);
   const { profileId, revision } = await params;
-  return NextResponse.json(await getRevision(actor, idSchema.parse(profileId), idSchema.parse(revision)));
+  return NextResponse.json(await getRevision(actor, urlId(profileId, "profile"), urlId(revision, "revision")));
 });

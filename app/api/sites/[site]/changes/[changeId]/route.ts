@@ -1,8 +1,7 @@
 import { NextResponse } from "next/server";
 import { authorize } from "@/lib/auth/guard";
 import { getChange } from "@/lib/data/changes";
-import { route } from "@/lib/http";
-import { idSchema } from "@/schemas/site";
+import { route, urlId } from "@/lib/http";
 
 type Ctx = { params: Promise<{ site: string; changeId: string }> };
 
@@ -10,5 +9,5 @@ type Ctx = { params: Promise<{ site: string; changeId: string }> };
 export const GET = route<Ctx>(async (req, { params }) => {
   const actor = await authorize("read", req);
   const { site, changeId } = await params;
-  return NextResponse.json(await getChange(actor, site, idSchema.parse(changeId)));
+  return NextResponse.json(await getChange(actor, site, urlId(changeId, "change")));
 });

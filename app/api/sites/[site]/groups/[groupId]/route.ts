@@ -1,8 +1,7 @@
 import { NextResponse } from "next/server";
 import { authorize } from "@/lib/auth/guard";
 import { deleteGroup, getGroup, updateGroup } from "@/lib/data/groups";
-import { readJson, route } from "@/lib/http";
-import { idSchema } from "@/schemas/site";
+import { readJson, route, urlId } from "@/lib/http";
 
 type Ctx = { params: Promise<{ site: string; groupId: string }> };
 
@@ -10,20 +9,20 @@ type Ctx = { params: Promise<{ site: string; groupId: string }> };
 export const GET = route<Ctx>(async (req, { params }) => {
   const actor = await authorize("read", req);
   const { site, groupId } = await params;
-  return NextResponse.json(await getGroup(actor, site, idSchema.parse(groupId)));
+  return NextResponse.json(await getGroup(actor, site, urlId(groupId, "group")));
 });
 
 // PATCH /api/sites/[site]/groups/[groupId] – replace a group's name, description, flag and selector
 export const PATCH = route<Ctx>(async (req, { params }) => {
   const actor = await authorize("config.edit", req);
   const { site, groupId } = await params;
-  return NextResponse.json(await updateGroup(actor, site, idSchema.parse(groupId), await readJson(req)));
+  return NextResponse.json(await updateGroup(actor, site, urlId(groupId, "group"), await readJson(req)));
 });
 
 // DELETE /api/sites/[site]/groups/[groupId] – remove a group (joins the site's draft change)
 export const DELETE = route<Ctx>(async (req, { params }) => {
   const actor = await authorize("config.edit", req);
   const { site, groupId } = await params;
-  await deleteGroup(actor, site, idSchema.parse(groupId));
+  await deleteGroup(actor, site, urlId(groupId, "group"));
   return new Response(null, { status: 204 });
 });

@@ -1,8 +1,7 @@
 import { NextResponse } from "next/server";
 import { authorize } from "@/lib/auth/guard";
 import { approveChange } from "@/lib/data/changes";
-import { readJson, route } from "@/lib/http";
-import { idSchema } from "@/schemas/site";
+import { readJson, route, urlId } from "@/lib/http";
 
 type Ctx = { params: Promise<{ site: string; changeId: string }> };
 
@@ -10,5 +9,5 @@ type Ctx = { params: Promise<{ site: string; changeId: string }> };
 export const POST = route<Ctx>(async (req, { params }) => {
   const actor = await authorize("change.review", req);
   const { site, changeId } = await params;
-  return NextResponse.json(await approveChange(actor, site, idSchema.parse(changeId), await readJson(req)));
+  return NextResponse.json(await approveChange(actor, site, urlId(changeId, "change"), await readJson(req)));
 });

@@ -1,8 +1,7 @@
 import { NextResponse } from "next/server";
 import { authorize } from "@/lib/auth/guard";
 import { createSampleSet, listSampleSets, SAMPLE_SET_MAX_SAMPLES } from "@/lib/data/sample-sets";
-import { HttpError, route } from "@/lib/http";
-import { idSchema } from "@/schemas/site";
+import { HttpError, route, urlId } from "@/lib/http";
 
 type Ctx = { params: Promise<{ site: string; groupId: string }> };
 
@@ -13,7 +12,7 @@ const MAX_BODY = 16 + 17 * SAMPLE_SET_MAX_SAMPLES;
 export const GET = route<Ctx>(async (req, { params }) => {
   const actor = await authorize("read", req);
   const { site, groupId } = await params;
-  return NextResponse.json({ sampleSets: await listSampleSets(actor, site, idSchema.parse(groupId)) });
+  return NextResponse.json({ sampleSets: await listSampleSets(actor, site, urlId(groupId, "group")) });
 });
 
 // POST /api/sites/[site]/groups/[groupId]/samples?name=&tag= – save sample data (binary body, lib/samples/wire.ts)
@@ -24,5 +23,5 @@ export const POST = route<Ctx>(async (req, { params }) => {
   const body = await req.arrayBuffer();
   if (body.byteLength > MAX_BODY) throw new HttpError(413, `a sample set body is at most ${MAX_BODY} bytes`, "body");
   const query = Object.fromEntries(new URL(req.url).searchParams);
-  return NextResponse.json(await createSampleSet(actor, site, idSchema.parse(groupId), query, body), { status: 201 });
+  return NextResponse.json(await createSampleSet(actor, site, urlId(groupId, "group"), query, body), { status: 201 });
 });

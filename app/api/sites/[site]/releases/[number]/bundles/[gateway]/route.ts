@@ -1,7 +1,6 @@
 import { authorize } from "@/lib/auth/guard";
 import { getBundle } from "@/lib/data/releases";
-import { route } from "@/lib/http";
-import { idSchema } from "@/schemas/site";
+import { route, urlId } from "@/lib/http";
 
 type Ctx = { params: Promise<{ site: string; number: string; gateway: string }> };
 
@@ -9,7 +8,7 @@ type Ctx = { params: Promise<{ site: string; number: string; gateway: string }> 
 export const GET = route<Ctx>(async (req, { params }) => {
   const actor = await authorize("read", req);
   const { site, number, gateway } = await params;
-  const n = idSchema.parse(number);
+  const n = urlId(number, "release");
   const bundle = await getBundle(actor, site, n, gateway);
   return new Response(new Uint8Array(bundle.bytes), {
     headers: {
