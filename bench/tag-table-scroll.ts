@@ -127,6 +127,23 @@ async function rendererCpu(cdp: CDPSession): Promise<Map<number, number>> {
 }
 
 /**
+ * Waits (up to 20 s) until the renderers together use under 5 % of a core over a quarter
+ * second, so that a scroll does not start on top of a page's load or garbage collection.
+ */
+async function settle(cdp: CDPSession): Promise<void> {
+  const end = Date.now() + 20_000;
+  let before = await rendererCpu(cdp);
+  while (Date.now() < end) {
+    await new Promise((r) => setTimeout(r, 250));
+    const after = await rendererCpu(cdp);
+    let used = 0;
+    for (const [id, t] of after) used += t - (before.get(id) ?? 0);
+    if (used < 0.0125) return;
+    before = after;
+  }
+}
+
+/**
  * Scrolls `selector` from top to bottom, `step` px per frame, and collects long tasks meanwhile.
  * `load` is the machine's 1-minute load average at the end, `cpuMs` the CPU time of the busiest
  * renderer meanwhile (the page's), and the trace gives each main-thread task's CPU time: both
@@ -172,23 +189,32 @@ async function main() {
     for (const t of body.tags) rows.push(`<tr><td>${t.name}</td><td>${t.unit}</td><td>${t.samplePeriodMs}</td><td>${t.kind}</td><td>${t.area}</td><td>${t.equipment}</td><td>${t.gateway}</td></tr>`);
     if (offset + body.tags.length >= body.total) break;
   }
-  const ref = await browser.newPage({ viewport: { width: 1400, height: 900 } });
-  const t1 = Date.now();
-  await ref.setContent(`<div id="s" style="height:65vh;overflow:auto"><table>${rows.join("")}</table></div>`, { timeout: 180_000 });
-  const refLoad = (Date.now() - t1) / 1000;
-  await ref.waitForTimeout(500);
+  const plainHtml = `<div id="s" style="height:65vh;overflow:auto"><table>${rows.join("")}</table></div>`;
 
   // Rounds of both scrolls, the two tables alternating: on a shared machine, what else runs
   // changes from minute to minute, and each figure is printed with the load it ran under.
+  // The plain table lives in its own page only while it is measured: left open, its renderer
+  // collects the garbage of a 50,000-row document for seconds at a time (seen in a trace:
+  // 9 s of major GC during one Sluice scroll), taking a core from whichever page scrolls.
+  // Before each scroll the browser is left to go quiet.
   const cdp = await browser.newBrowserCDPSession();
   const trace = process.env.TAG_BENCH_TRACE;
   const results: { round: number; step: number; app: Scroll; plain: Scroll }[] = [];
+  let refLoad = 0;
   for (let round = 1; round <= ROUNDS; round++) {
     for (const step of STEPS_PX) {
       console.log(`tag-table bench: round ${round} of ${ROUNDS}, ${step} px/frame`);
+      await settle(cdp);
       // TAG_BENCH_TRACE=dir: a Chromium performance trace of each Sluice scroll, for DevTools.
       const app = await scrollAndMeasure(page, cdp, '[data-testid="tag-scroller"]', step, trace && `${trace}/tag-table-${step}px-${round}.json`);
-      results.push({ round, step, app, plain: await scrollAndMeasure(ref, cdp, "#s", step) });
+      const ref = await browser.newPage({ viewport: { width: 1400, height: 900 } });
+      const t1 = Date.now();
+      await ref.setContent(plainHtml, { timeout: 180_000 });
+      refLoad = (Date.now() - t1) / 1000;
+      await settle(cdp);
+      const plain = await scrollAndMeasure(ref, cdp, "#s", step);
+      await ref.close();
+      results.push({ round, step, app, plain });
     }
   }
   await browser.close();

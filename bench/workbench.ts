@@ -70,6 +70,22 @@ const DRAWN_SCRIPT = `(() => {
 
 type Figure = { ms: number; wall: number; cpu: number; load: number };
 
+/**
+ * Evaluates `script` every 20 ms until it gives something other than null or false. Not
+ * page.waitForFunction: that polls through eval inside the page, which the console's CSP
+ * (no 'unsafe-eval') refuses; page.evaluate goes through the DevTools protocol. The figures
+ * come from performance marks in the page, so the polling delay is not in them.
+ */
+async function poll(page: Page, script: string, timeoutMs: number): Promise<unknown> {
+  const end = Date.now() + timeoutMs;
+  for (;;) {
+    const value = await page.evaluate(script);
+    if (value !== null && value !== false) return value;
+    if (Date.now() > end) throw new Error(`timed out after ${timeoutMs} ms waiting for: ${script.slice(0, 120)}`);
+    await new Promise((r) => setTimeout(r, 20));
+  }
+}
+
 async function fileToChart(page: Page, cdp: CDPSession, file: string): Promise<Figure> {
   // Start each round from a small demo signal, so the previous round's figures are gone.
   await page.getByLabel("Samples").fill("100");
@@ -79,9 +95,9 @@ async function fileToChart(page: Page, cdp: CDPSession, file: string): Promise<F
   const cpu0 = await rendererCpu(cdp);
   const t0 = Date.now();
   await page.getByLabel("Sample data CSV").setInputFiles(file);
-  const handle = await page.waitForFunction(DRAWN_SCRIPT, undefined, { timeout: 120_000, polling: 20 });
+  const ms = (await poll(page, DRAWN_SCRIPT, 120_000)) as number;
   const wall = Date.now() - t0;
-  return { ms: (await handle.jsonValue()) as number, wall, cpu: await cpuSince(cdp, cpu0), load: loadavg()[0] };
+  return { ms, wall, cpu: await cpuSince(cdp, cpu0), load: loadavg()[0] };
 }
 
 /** Clicks "Run sweep" in the page and resolves with the ms until the status says the sweep finished. */
@@ -115,14 +131,17 @@ async function sweep(page: Page, cdp: CDPSession): Promise<Figure & { worker: nu
 
 /** A drag across the middle fifth of the chart: ms from mouse-up to the redraw with the new range's data. */
 async function zoom(page: Page): Promise<number> {
-  const box = (await page.locator('[data-testid="preview-chart"] .u-over').boundingBox())!;
+  const over = page.locator('[data-testid="preview-chart"] .u-over');
+  // The mouse acts at viewport coordinates: the chart must be in view first.
+  await over.scrollIntoViewIfNeeded();
+  const box = (await over.boundingBox())!;
   await page.evaluate("performance.clearMarks('sluice:chart-drawn')");
   await page.mouse.move(box.x + box.width * 0.4, box.y + box.height / 2);
   await page.mouse.down();
   await page.mouse.move(box.x + box.width * 0.6, box.y + box.height / 2, { steps: 4 });
   const t0 = await page.evaluate("performance.now()");
   await page.mouse.up();
-  await page.waitForFunction(`performance.getEntriesByName("sluice:chart-drawn").length >= 2`, undefined, { timeout: 30_000 });
+  await poll(page, `performance.getEntriesByName("sluice:chart-drawn").length >= 2`, 30_000);
   const marks = (await page.evaluate(`performance.getEntriesByName("sluice:chart-drawn").map((m) => m.startTime)`)) as number[];
   await page.getByRole("button", { name: "Whole series" }).click();
   return marks[marks.length - 1] - (t0 as number);
