@@ -12,6 +12,8 @@ export class GatewayToken extends Model<InferAttributes<GatewayToken>, InferCrea
   declare lastUsedAt: CreationOptional<Date | null>;
   declare revokedAt: CreationOptional<Date | null>;
   declare revokedBy: CreationOptional<number | null>;
+  /** After this the gateway API refuses the token; null: it lives until revoked. */
+  declare expiresAt: CreationOptional<Date | null>;
 
   static initModel(sequelize: Sequelize) {
     GatewayToken.init(
@@ -26,6 +28,7 @@ export class GatewayToken extends Model<InferAttributes<GatewayToken>, InferCrea
         lastUsedAt: { type: DataTypes.DATE(3), allowNull: true },
         revokedAt: { type: DataTypes.DATE(3), allowNull: true },
         revokedBy: { type: DataTypes.INTEGER.UNSIGNED, allowNull: true },
+        expiresAt: { type: DataTypes.DATE(3), allowNull: true },
       },
       { sequelize, tableName: "gateway_tokens", underscored: true, updatedAt: false },
     );

@@ -2,7 +2,15 @@ import { z } from "zod";
 
 export const TOKEN_LABEL_MAX = 120;
 
-/** Issuing a gateway token: an optional label to tell it apart (where it is deployed, why it was issued). */
+/** The longest lifetime a token can be given (ten years); without one it lives until revoked. */
+export const TOKEN_DAYS_MAX = 3650;
+/** Lifetimes the console offers; the API takes any whole number of days up to TOKEN_DAYS_MAX. */
+export const TOKEN_DAYS_CHOICES = [30, 90, 180, 365, 730] as const;
+
+/**
+ * Issuing a gateway token: an optional label to tell it apart (where it is deployed, why it
+ * was issued) and an optional lifetime in days (null or absent: until revoked).
+ */
 export const issueTokenSchema = z
   .object({
     label: z
@@ -11,6 +19,13 @@ export const issueTokenSchema = z
       .max(TOKEN_LABEL_MAX, `At most ${TOKEN_LABEL_MAX} characters.`)
       .regex(/^[^\p{Cc}]*$/u, "No control characters (such as line breaks).")
       .default(""),
+    expiresInDays: z
+      .number({ message: "The lifetime must be a number of days." })
+      .int("The lifetime is a whole number of days.")
+      .min(1, "At least 1 day.")
+      .max(TOKEN_DAYS_MAX, `At most ${TOKEN_DAYS_MAX} days.`)
+      .nullable()
+      .default(null),
   })
   .strict();
 export type IssueTokenInput = z.input<typeof issueTokenSchema>;

@@ -11,7 +11,7 @@
 import { parseArgs } from "node:util";
 
 const USAGE = [
-  "usage: npm run -s cli -- gateway-token create --site <slug> --gateway <slug> [--label <text>]",
+  "usage: npm run -s cli -- gateway-token create --site <slug> --gateway <slug> [--label <text>] [--expires-days <days>]",
   "       npm run -s cli -- gateway-token list   --site <slug> --gateway <slug> [--json]",
   "       npm run -s cli -- gateway-token revoke --site <slug> --gateway <slug> --id <token id>",
 ].join("\n");
@@ -19,7 +19,7 @@ const USAGE = [
 class UsageError extends Error {}
 
 type Command =
-  | { verb: "create"; site: string; gateway: string; label: string }
+  | { verb: "create"; site: string; gateway: string; label: string; expiresInDays: number | null }
   | { verb: "list"; site: string; gateway: string; json: boolean }
   | { verb: "revoke"; site: string; gateway: string; id: number };
 
@@ -31,22 +31,26 @@ function parseCommand(argv: string[]): Command {
   try {
     parsed = parseArgs({
       args: rest,
-      options: { site: { type: "string" }, gateway: { type: "string" }, label: { type: "string" }, id: { type: "string" }, json: { type: "boolean" } },
+      options: { site: { type: "string" }, gateway: { type: "string" }, label: { type: "string" }, "expires-days": { type: "string" }, id: { type: "string" }, json: { type: "boolean" } },
       strict: true,
       allowPositionals: false,
     });
   } catch (err) {
     throw new UsageError((err as Error).message);
   }
-  const { site, gateway, label, id, json } = parsed.values;
-  const allowed: Record<string, string[]> = { create: ["label"], list: ["json"], revoke: ["id"] };
+  const { site, gateway, label, id, json, "expires-days": expiresDays } = parsed.values;
+  const allowed: Record<string, string[]> = { create: ["label", "expires-days"], list: ["json"], revoke: ["id"] };
   if (!verb || !(verb in allowed)) throw new UsageError(verb ? `unknown gateway-token command "${verb}"` : "gateway-token needs create, list or revoke");
-  for (const [name, value] of Object.entries({ label, id, json })) {
+  for (const [name, value] of Object.entries({ label, id, json, "expires-days": expiresDays })) {
     if (value !== undefined && !allowed[verb].includes(name)) throw new UsageError(`--${name} does not apply to gateway-token ${verb}`);
   }
   if (!site) throw new UsageError("--site <slug> is required");
   if (!gateway) throw new UsageError("--gateway <slug> is required");
-  if (verb === "create") return { verb, site, gateway, label: label ?? "" };
+  if (verb === "create") {
+    // The range (1 … 3650) is checked with the console's rules and reported like theirs.
+    if (expiresDays !== undefined && !/^[0-9]{1,9}$/.test(expiresDays)) throw new UsageError(`--expires-days must be a whole number of days, not "${expiresDays}"`);
+    return { verb, site, gateway, label: label ?? "", expiresInDays: expiresDays === undefined ? null : Number(expiresDays) };
+  }
   if (verb === "list") return { verb, site, gateway, json: json ?? false };
   if (id === undefined) throw new UsageError("--id <token id> is required");
   if (!/^[1-9][0-9]{0,9}$/.test(id)) throw new UsageError(`--id must be a token id (a positive whole number), not "${id}"`);
@@ -61,9 +65,9 @@ async function run(cmd: Command): Promise<void> {
   const tokens = await import("@/lib/data/gateway-tokens");
   const where = `gateway ${cmd.gateway} at ${cmd.site}`;
   if (cmd.verb === "create") {
-    const issued = await tokens.createGatewayToken(CLI_ACTOR, cmd.site, cmd.gateway, { label: cmd.label });
+    const issued = await tokens.createGatewayToken(CLI_ACTOR, cmd.site, cmd.gateway, { label: cmd.label, expiresInDays: cmd.expiresInDays });
     process.stdout.write(`${issued.token}\n`);
-    note(`issued token ${issued.prefix}… (id ${issued.id}${issued.label ? `, "${issued.label}"` : ""}) for ${where}.`);
+    note(`issued token ${issued.prefix}… (id ${issued.id}${issued.label ? `, "${issued.label}"` : ""}) for ${where}${issued.expiresAt ? `, expiring ${stamp(issued.expiresAt)} UTC` : ", until revoked"}.`);
     note("It is shown only now: Sluice keeps only its SHA-256. The gateway's earlier tokens stay live until revoked.");
     return;
   }
@@ -78,8 +82,8 @@ async function run(cmd: Command): Promise<void> {
       return;
     }
     const rows = [
-      ["ID", "PREFIX", "STATE", "CREATED (UTC)", "BY", "LAST USED", "LABEL"],
-      ...list.map((t) => [String(t.id), `${t.prefix}…`, t.state, stamp(t.createdAt), t.createdBy, t.lastUsedAt ? stamp(t.lastUsedAt) : "never", t.label]),
+      ["ID", "PREFIX", "STATE", "CREATED (UTC)", "BY", "EXPIRES (UTC)", "LAST USED", "LABEL"],
+      ...list.map((t) => [String(t.id), `${t.prefix}…`, t.state, stamp(t.createdAt), t.createdBy, t.expiresAt ? stamp(t.expiresAt) : "never", t.lastUsedAt ? stamp(t.lastUsedAt) : "never", t.label]),
     ];
     const widths = rows[0].map((_, i) => Math.max(...rows.map((r) => r[i].length)));
     for (const r of rows) process.stdout.write(`${r.map((c, i) => (i === r.length - 1 ? c : c.padEnd(widths[i]))).join("  ").trimEnd()}\n`);

@@ -13,7 +13,7 @@ import { Field, inputClass } from "@/components/ui/field";
 import { showFailure } from "@/components/ui/form-error";
 import { SecretReveal } from "@/components/ui/secret-reveal";
 import type { GatewayTokenView, IssuedToken } from "@/lib/data/gateway-tokens";
-import { issueTokenSchema, type IssueTokenInput, type IssueTokenValues } from "@/schemas/gateway-token";
+import { TOKEN_DAYS_CHOICES, issueTokenSchema, type IssueTokenInput, type IssueTokenValues } from "@/schemas/gateway-token";
 
 type Props = { site: string; gateway: string; gatewayName: string; tokens: GatewayTokenView[] };
 
@@ -23,17 +23,18 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
   const [issued, setIssued] = useState<IssuedToken | null>(null);
   const { register, handleSubmit, setError, reset, formState } = useForm<IssueTokenInput, unknown, IssueTokenValues>({
     resolver: zodResolver(issueTokenSchema),
-    defaultValues: { label: "" },
+    defaultValues: { label: "", expiresInDays: null },
   });
   const onSubmit = handleSubmit(async (values) => {
     const result = await issueGatewayTokenAction({ site, gateway, values });
-    if (!result.ok) return showFailure(result, setError, ["label"]);
+    if (!result.ok) return showFailure(result, setError, ["label", "expiresInDays"]);
     setIssued(result.data);
     reset();
     toast.success(`Token ${result.data.prefix}… issued for ${gatewayName}.`);
     router.refresh();
   });
-  const live = tokens.filter((t) => t.state === "live").length;
+  const count = (state: GatewayTokenView["state"]) => tokens.filter((t) => t.state === state).length;
+  const expired = count("expired");
 
   return (
     <section aria-labelledby="gateway-tokens" className="mb-8 rounded-panel border border-panel-line bg-panel p-4">
@@ -65,9 +66,24 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
         />
       ) : null}
 
-      <form onSubmit={onSubmit} noValidate className="mb-4 grid gap-3 sm:grid-cols-[minmax(0,24rem)_auto] sm:items-start sm:justify-start">
+      <form onSubmit={onSubmit} noValidate className="mb-4 grid gap-3 sm:grid-cols-[minmax(0,24rem)_minmax(0,12rem)_auto] sm:items-start sm:justify-start">
         <Field label="Token label" htmlFor="token-label" error={formState.errors.label?.message} hint="Optional: where it is deployed or why, e.g. “edge box, 2027 rotation”.">
           <input id="token-label" className={inputClass} aria-invalid={!!formState.errors.label} {...register("label")} />
+        </Field>
+        <Field label="Expires" htmlFor="token-expiry" error={formState.errors.expiresInDays?.message} hint="After this the gateway API refuses it.">
+          <select
+            id="token-expiry"
+            className={inputClass}
+            aria-invalid={!!formState.errors.expiresInDays}
+            {...register("expiresInDays", { setValueAs: (v: string | number | null) => (v === "" || v === null ? null : Number(v)) })}
+          >
+            <option value="">never (until revoked)</option>
+            {TOKEN_DAYS_CHOICES.map((d) => (
+              <option key={d} value={d}>
+                after {d} days
+              </option>
+            ))}
+          </select>
         </Field>
         <Button type="submit" className="sm:mt-6" disabled={formState.isSubmitting}>
           {formState.isSubmitting ? "Issuing…" : "Issue token"}
@@ -79,7 +95,8 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
       ) : (
         <>
           <p className="mb-2 text-label text-ink-faint">
-            {live} live, {tokens.length - live} revoked
+            {count("live")} live, {expired > 0 ? `${expired} expired, ` : ""}
+            {count("revoked")} revoked
           </p>
           <div className="overflow-x-auto rounded-panel border border-panel-line">
             <table aria-label={`Tokens of ${gatewayName}`} className="text-label">
@@ -102,7 +119,15 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
                     <td>{t.label || <span className="text-ink-faint">—</span>}</td>
                     <td>
                       {t.state === "live" ? (
-                        <span className="rounded bg-ok-soft px-1.5 py-0.5 text-micro font-medium text-ok">live</span>
+                        <>
+                          <span className="rounded bg-ok-soft px-1.5 py-0.5 text-micro font-medium text-ok">live</span>
+                          {t.expiresAt ? <span className="mt-1 block text-micro text-ink-faint">expires {when(t.expiresAt)}</span> : null}
+                        </>
+                      ) : t.state === "expired" ? (
+                        <>
+                          <span className="rounded bg-caution-soft px-1.5 py-0.5 text-micro font-medium text-caution">expired</span>
+                          <span className="mt-1 block text-micro text-ink-faint">{when(t.expiresAt!)}</span>
+                        </>
                       ) : (
                         <>
                           <span className="rounded bg-panel-sunk px-1.5 py-0.5 text-micro font-medium text-ink-soft">revoked</span>
@@ -118,7 +143,7 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
                     </td>
                     <td className="whitespace-nowrap">{t.lastUsedAt ? when(t.lastUsedAt) : <span className="text-ink-faint">never</span>}</td>
                     <td className="text-right">
-                      {t.state === "live" ? <RevokeTokenButton site={site} gateway={gateway} gatewayName={gatewayName} token={t} lastLive={live === 1} /> : null}
+                      {t.state === "revoked" ? null : <RevokeTokenButton site={site} gateway={gateway} gatewayName={gatewayName} token={t} lastLive={t.state === "live" && count("live") === 1} />}
                     </td>
                   </tr>
                 ))}

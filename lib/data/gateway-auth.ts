@@ -41,7 +41,7 @@ export const PULL_SQL = `SELECT t.id AS tokenId, g.id AS gatewayId, g.slug AS ga
     JOIN gateways g ON g.id = t.gateway_id
     LEFT JOIN bundles b ON b.id = g.current_bundle_id
     LEFT JOIN releases r ON r.id = b.release_id
-   WHERE t.token_hash = ? AND t.revoked_at IS NULL`;
+   WHERE t.token_hash = ? AND t.revoked_at IS NULL AND (t.expires_at IS NULL OR t.expires_at > ?)`;
 
 /**
  * Authenticates a gateway request (before any precondition, RFC 9110 §13.2.1): the bearer
@@ -55,7 +55,7 @@ export async function authenticateGateway(req: Request): Promise<GatewayPull> {
   if (token === null) throw noToken();
   const hash = hashToken(token);
   if (TOKEN_PATTERN.test(token)) {
-    const rows = await sequelize.query<GatewayPull>(PULL_SQL, { replacements: [hash], type: QueryTypes.SELECT });
+    const rows = await sequelize.query<GatewayPull>(PULL_SQL, { replacements: [hash, new Date()], type: QueryTypes.SELECT });
     if (rows.length === 1) return rows[0];
   }
   const keys = [`gwtok:${hash}`, `gwaddr:${clientAddress(req)}`];

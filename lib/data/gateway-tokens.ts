@@ -17,8 +17,10 @@ export type GatewayTokenView = {
   id: number;
   prefix: string;
   label: string;
-  state: "live" | "revoked";
+  state: "live" | "expired" | "revoked";
   createdAt: string;
+  /** When the gateway API stops taking it; null: not before it is revoked. */
+  expiresAt: string | null;
   /** The admin's name, or "command line". */
   createdBy: string;
   lastUsedAt: string | null;
@@ -27,7 +29,7 @@ export type GatewayTokenView = {
 };
 
 /** The answer to issuing a token: the only time the token itself leaves the registry. */
-export type IssuedToken = { id: number; token: string; prefix: string; label: string; createdAt: string };
+export type IssuedToken = { id: number; token: string; prefix: string; label: string; createdAt: string; expiresAt: string | null };
 
 const BY_CLI = "command line";
 
@@ -53,14 +55,21 @@ async function namesOf(ids: (number | null)[], transaction?: Transaction): Promi
   return new Map(users.map((u) => [u.id, u.name]));
 }
 
+/** Revoked wins over expired: a revoked token stays revoked whatever its date. */
+function stateOf(t: GatewayToken, now = Date.now()): GatewayTokenView["state"] {
+  if (t.revokedAt) return "revoked";
+  return t.expiresAt && t.expiresAt.getTime() <= now ? "expired" : "live";
+}
+
 function present(t: GatewayToken, names: Map<number, string>): GatewayTokenView {
   const who = (id: number | null) => (id === null ? BY_CLI : (names.get(id) ?? `user ${id}`));
   return {
     id: t.id,
     prefix: t.prefix,
     label: t.label,
-    state: t.revokedAt ? "revoked" : "live",
+    state: stateOf(t),
     createdAt: t.createdAt.toISOString(),
+    expiresAt: t.expiresAt?.toISOString() ?? null,
     createdBy: who(t.createdBy),
     lastUsedAt: t.lastUsedAt?.toISOString() ?? null,
     revokedAt: t.revokedAt?.toISOString() ?? null,
@@ -73,7 +82,8 @@ const snapshot = (t: GatewayToken, gateway: Gateway) => ({
   gateway: gateway.slug,
   prefix: t.prefix,
   label: t.label,
-  state: t.revokedAt ? "revoked" : "live",
+  state: stateOf(t),
+  expiresAt: t.expiresAt?.toISOString() ?? null,
 });
 
 const auditLabel = (t: GatewayToken, gateway: Gateway) => `${gateway.slug} ${t.prefix}…`;
@@ -85,17 +95,18 @@ const auditLabel = (t: GatewayToken, gateway: Gateway) => `${gateway.slug} ${t.p
  */
 export async function createGatewayToken(actor: TokenActor | null, siteSlug: string, gatewaySlug: string, input: IssueTokenInput): Promise<IssuedToken> {
   assertTokenAdmin(actor);
-  const { label } = issueTokenSchema.parse(input ?? {});
+  const { label, expiresInDays } = issueTokenSchema.parse(input ?? {});
   const { token, hash, prefix } = generateToken();
+  const expiresAt = expiresInDays === null ? null : new Date(Date.now() + expiresInDays * 86_400_000);
   return sequelize.transaction(async (transaction) => {
     const { site, gateway } = await gatewayOf(siteSlug, gatewaySlug, transaction);
-    const row = await GatewayToken.create({ gatewayId: gateway.id, tokenHash: hash, prefix, label, createdBy: userIdOf(actor) }, { transaction });
+    const row = await GatewayToken.create({ gatewayId: gateway.id, tokenHash: hash, prefix, label, expiresAt, createdBy: userIdOf(actor) }, { transaction });
     await recordAudit(
       actor,
       { action: "token.create", entityType: "token", entityId: row.id, entityLabel: auditLabel(row, gateway), siteId: site.id, before: null, after: snapshot(row, gateway) },
       transaction,
     );
-    return { id: row.id, token, prefix, label, createdAt: row.createdAt.toISOString() };
+    return { id: row.id, token, prefix, label, createdAt: row.createdAt.toISOString(), expiresAt: expiresAt?.toISOString() ?? null };
   });
 }
 

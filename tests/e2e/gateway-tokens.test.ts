@@ -77,6 +77,15 @@ describe("gateway tokens in the browser", () => {
     expect(await row.getByText("revoked", { exact: true }).isVisible()).toBe(true);
     expect(await panel.getByText("0 live, 1 revoked").isVisible()).toBe(true);
     await screenshot(page, "gateway-token-revoked");
+
+    // A token with a lifetime shows when it expires.
+    await panel.getByLabel("Expires").selectOption({ label: "after 90 days" });
+    await panel.getByRole("button", { name: "Issue token" }).click();
+    const second = (await page.getByTestId("issued-token").inputValue()).slice(0, 12);
+    const expiring = panel.getByTestId(`token-${second}`);
+    await expiring.waitFor();
+    expect(await expiring.textContent()).toMatch(/live\s*expires /);
+    expect(await panel.getByText("1 live, 1 revoked").isVisible()).toBe(true);
     await page.close();
   });
 

@@ -122,6 +122,21 @@ describe("GET /api/gateway/v1/bundle", () => {
     expect(Buffer.from(await res.arrayBuffer()).equals(bytes)).toBe(true);
   });
 
+  it("refuses an expired token like a revoked one, from the moment it expires", async () => {
+    const { ta, taId, tb } = await released();
+    expect((await pull(ta)).status).toBe(200);
+    // Still a second to go: taken.
+    await GatewayToken.update({ expiresAt: new Date(Date.now() + 1_000) }, { where: { id: taId } });
+    expect((await pull(ta)).status).toBe(200);
+    await GatewayToken.update({ expiresAt: new Date(Date.now() - 1) }, { where: { id: taId } });
+    const expired = await pull(ta);
+    expect(expired.status).toBe(401);
+    expect(expired.headers.get("www-authenticate")).toMatch(/^Bearer realm="sluice", error="invalid_token"/);
+    expect((await expired.json()).error).toMatch(/expired/);
+    // The other gateway's token, without an expiry, is untouched.
+    expect((await pull(tb)).status).toBe(200);
+  });
+
   it("authenticates before preconditions, with RFC 6750 challenges", async () => {
     const { ta } = await released();
     const etag = (await pull(ta)).headers.get("etag")!;
@@ -223,7 +238,7 @@ describe("the pull's one query", () => {
     const { PULL_SQL } = await import("@/lib/data/gateway-auth");
     const { hashToken } = await import("@/lib/gateway/token");
     const { QueryTypes } = await import("sequelize");
-    const plan = await sequelize.query<{ table: string; type: string; key: string | null }>(`EXPLAIN ${PULL_SQL}`, { replacements: [hashToken(ta)], type: QueryTypes.SELECT });
+    const plan = await sequelize.query<{ table: string; type: string; key: string | null }>(`EXPLAIN ${PULL_SQL}`, { replacements: [hashToken(ta), new Date()], type: QueryTypes.SELECT });
     expect(plan).toHaveLength(4);
     for (const row of plan) {
       expect(["const", "eq_ref"], JSON.stringify(row)).toContain(row.type);

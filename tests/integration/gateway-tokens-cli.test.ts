@@ -40,6 +40,33 @@ describe("gateway-token on the command line", () => {
     expect(audit.map((a) => [a.action, a.actorId, a.actorEmail])).toEqual([["token.create", null, "(cli)"]]);
   });
 
+  it("creates a token with a lifetime (--expires-days); a bad one is refused before anything is written", async () => {
+    const site = await createSite();
+    const gateway = await createGateway(site);
+    const where = ["--site", site.slug, "--gateway", gateway.slug];
+    const t0 = Date.now();
+    const r = await cli("gateway-token", "create", ...where, "--expires-days", "90");
+    expect(r.code, r.stderr).toBe(0);
+    expect(r.stderr).toMatch(/expiring \d{4}-\d\d-\d\d \d\d:\d\d:\d\d UTC/);
+    const row = await GatewayToken.findOne({ where: { tokenHash: hashToken(r.stdout.trim()) } });
+    expect(row!.expiresAt!.getTime() - t0).toBeGreaterThanOrEqual(90 * 86_400_000 - 1_000);
+    expect(row!.expiresAt!.getTime() - Date.now()).toBeLessThanOrEqual(90 * 86_400_000);
+    const listed = await cli("gateway-token", "list", ...where);
+    expect(listed.stdout.split("\n")[0]).toMatch(/STATE\s+CREATED \(UTC\)\s+BY\s+EXPIRES \(UTC\)/);
+    expect(listed.stdout).toContain(row!.expiresAt!.toISOString().slice(0, 10));
+
+    for (const [bad, why] of [["0", /1 day/], ["3651", /3650/], ["1.5", /whole number/], ["soon", /whole number/]] as const) {
+      const refused = await cli("gateway-token", "create", ...where, "--expires-days", bad);
+      expect(refused.code, bad).not.toBe(0);
+      expect(refused.stderr, bad).toMatch(why);
+      expect(refused.stdout, bad).toBe("");
+    }
+    const misplaced = await cli("gateway-token", "list", ...where, "--expires-days", "5");
+    expect(misplaced.code).toBe(2);
+    expect(misplaced.stderr).toContain("--expires-days does not apply to gateway-token list");
+    expect(await GatewayToken.count({ where: { gatewayId: gateway.id } })).toBe(1);
+  });
+
   it("lists by prefix and state, and revokes once", async () => {
     const site = await createSite();
     const gateway = await createGateway(site);

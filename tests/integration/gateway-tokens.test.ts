@@ -39,7 +39,8 @@ describe("gateway tokens", () => {
     expect(res.status).toBe(201);
     expect(res.headers.get("cache-control")).toBe("no-store");
     const body = await res.json();
-    expect(Object.keys(body).sort()).toEqual(["createdAt", "id", "label", "prefix", "token"]);
+    expect(Object.keys(body).sort()).toEqual(["createdAt", "expiresAt", "id", "label", "prefix", "token"]);
+    expect(body.expiresAt).toBeNull();
     expect(body.token).toMatch(TOKEN_PATTERN);
     expect(body).toMatchObject({ prefix: body.token.slice(0, 12), label: "line 2 edge box", createdAt: expect.stringMatching(/^\d{4}-\d\d-\d\dT/) });
 
@@ -54,7 +55,7 @@ describe("gateway tokens", () => {
     const audit = await AuditEvent.findAll({ where: { entityType: "token", entityId: body.id } });
     expect(audit).toHaveLength(1);
     expect(audit[0]).toMatchObject({ action: "token.create", actorId: admin.id, actorEmail: admin.email, siteId: site.id, beforeJson: null });
-    expect(audit[0].afterJson).toEqual({ gateway: gateway.slug, prefix: body.prefix, label: "line 2 edge box", state: "live" });
+    expect(audit[0].afterJson).toEqual({ gateway: gateway.slug, prefix: body.prefix, label: "line 2 edge box", state: "live", expiresAt: null });
     const [{ n }] = await sequelize.query<{ n: number }>(
       "SELECT COUNT(*) AS n FROM audit_events WHERE CONCAT_WS(' ', entity_label, before_json, after_json) LIKE ? OR CONCAT_WS(' ', entity_label, before_json, after_json) LIKE ?",
       { replacements: [`%${body.token.slice(12)}%`, `%${hashToken(body.token)}%`], type: QueryTypes.SELECT },
@@ -79,6 +80,7 @@ describe("gateway tokens", () => {
       label: "first",
       state: "live",
       createdAt: first.createdAt,
+      expiresAt: null,
       createdBy: "Ada Lister",
       lastUsedAt: null,
       revokedAt: null,
@@ -176,6 +178,31 @@ describe("gateway tokens", () => {
     expect(await states()).toEqual({ [old.id]: "revoked", [fresh.id]: "live" });
   });
 
+  it("gives a token a lifetime in days on request; past it the token shows as expired and can still be revoked", async () => {
+    const admin = await createUser({ role: "admin" });
+    const { gateway, params } = await gatewayAt();
+    const t0 = Date.now();
+    const res = await issue(admin, params, { label: "short-lived", expiresInDays: 30 });
+    expect(res.status).toBe(201);
+    const body = await res.json();
+    const expires = Date.parse(body.expiresAt);
+    expect(expires - t0).toBeGreaterThanOrEqual(30 * 86_400_000 - 1_000);
+    expect(expires - Date.now()).toBeLessThanOrEqual(30 * 86_400_000);
+    expect((await GatewayToken.findByPk(body.id))!.expiresAt!.getTime()).toBe(expires);
+    // The limits themselves are legal; null is "until revoked".
+    expect((await (await issue(admin, params, { expiresInDays: 3650 })).json()).expiresAt).toMatch(/^\d{4}-/);
+    expect((await (await issue(admin, params, { expiresInDays: 1 })).json()).expiresAt).toMatch(/^\d{4}-/);
+    expect((await (await issue(admin, params, { expiresInDays: null })).json()).expiresAt).toBeNull();
+
+    await GatewayToken.update({ expiresAt: new Date(Date.now() - 60_000) }, { where: { id: body.id } });
+    const view = (await (await list(admin, params)).json()).tokens.find((t: { id: number }) => t.id === body.id);
+    expect(view).toMatchObject({ state: "expired", expiresAt: expect.stringMatching(/^\d{4}-/) });
+    const revoked = await revoke(admin, params, body.id);
+    expect(revoked.status).toBe(200);
+    expect((await revoked.json()).state).toBe("revoked");
+    expect(await GatewayToken.count({ where: { gatewayId: gateway.id } })).toBe(4);
+  });
+
   it("names the field of bad input and changes nothing", async () => {
     const admin = await createUser({ role: "admin" });
     const { gateway, params } = await gatewayAt();
@@ -185,6 +212,11 @@ describe("gateway tokens", () => {
       [{ label: "two\nlines" }, "label"],
       [{ label: "ok", gateway: "other" }, "body"],
       [["label"], "body"],
+      [{ expiresInDays: 0 }, "expiresInDays"],
+      [{ expiresInDays: 3651 }, "expiresInDays"],
+      [{ expiresInDays: 1.5 }, "expiresInDays"],
+      [{ expiresInDays: "30" }, "expiresInDays"],
+      [{ expiresInDays: true }, "expiresInDays"],
     ];
     for (const [body, field] of cases) {
       const res = await issue(admin, params, body);

@@ -83,7 +83,11 @@ const FIELDS: Record<string, Field[]> = {
   createGatewayAction: [...slugFields("site"), { path: ["values"], type: "text", required: true, reportedAs: VALUES }, ...gatewayFields()],
   updateGatewayAction: [...slugFields("site", "gateway"), { path: ["values"], type: "text", required: true, reportedAs: VALUES }, ...gatewayFields()],
   deleteGatewayAction: slugFields("site", "gateway"),
-  issueGatewayTokenAction: [...slugFields("site", "gateway"), { path: ["values", "label"], type: "text", text: "name", max: 120 }],
+  issueGatewayTokenAction: [
+    ...slugFields("site", "gateway"),
+    { path: ["values", "label"], type: "text", text: "name", max: 120 },
+    { path: ["values", "expiresInDays"], type: "number", range: [1, 3650], int: true, nullable: true, noReadBack: true },
+  ],
   revokeGatewayTokenAction: [...slugFields("site", "gateway"), { path: ["tokenId"], type: "number", range: [1, Number.MAX_SAFE_INTEGER], int: true, required: true, noReadBack: true }],
 };
 

@@ -204,7 +204,10 @@ describe("hostile input: admin routes", () => {
     await h.route(spec, [
       ...roots,
       { category: "wrong type", label: "an unknown key", build: (s) => ({ ...s, body: { label: "x", scope: "all" } }) },
-      ...fieldCases([{ path: ["label"], type: "text", text: "name", max: 120 }]),
+      ...fieldCases([
+        { path: ["label"], type: "text", text: "name", max: 120 },
+        { path: ["expiresInDays"], type: "number", range: [1, 3650], int: true, nullable: true, noReadBack: true },
+      ]),
       ...paramCases(["site", "gateway"]),
     ]);
     await h.fuzzRoute(spec, { seed: 107, runs: 30 });
