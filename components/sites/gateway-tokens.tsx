@@ -33,8 +33,8 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
     toast.success(`Token ${result.data.prefix}… issued for ${gatewayName}.`);
     router.refresh();
   });
-  const count = (state: GatewayTokenView["state"]) => tokens.filter((t) => t.state === state).length;
-  const expired = count("expired");
+  const count = { live: 0, expired: 0, revoked: 0 };
+  for (const t of tokens) count[t.state]++;
 
   return (
     <section aria-labelledby="gateway-tokens" className="mb-8 rounded-panel border border-panel-line bg-panel p-4">
@@ -95,8 +95,8 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
       ) : (
         <>
           <p className="mb-2 text-label text-ink-faint">
-            {count("live")} live, {expired > 0 ? `${expired} expired, ` : ""}
-            {count("revoked")} revoked
+            {count.live} live, {count.expired > 0 ? `${count.expired} expired, ` : ""}
+            {count.revoked} revoked
           </p>
           <div className="overflow-x-auto rounded-panel border border-panel-line">
             <table aria-label={`Tokens of ${gatewayName}`} className="text-label">
@@ -143,7 +143,7 @@ export function GatewayTokens({ site, gateway, gatewayName, tokens }: Readonly<P
                     </td>
                     <td className="whitespace-nowrap">{t.lastUsedAt ? when(t.lastUsedAt) : <span className="text-ink-faint">never</span>}</td>
                     <td className="text-right">
-                      {t.state === "revoked" ? null : <RevokeTokenButton site={site} gateway={gateway} gatewayName={gatewayName} token={t} lastLive={t.state === "live" && count("live") === 1} />}
+                      {t.state === "revoked" ? null : <RevokeTokenButton site={site} gateway={gateway} gatewayName={gatewayName} token={t} lastLive={t.state === "live" && count.live === 1} />}
                     </td>
                   </tr>
                 ))}

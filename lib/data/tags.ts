@@ -122,10 +122,20 @@ export const deleteTagsSchema = z.object({ ids: z.array(z.number().int().positiv
 export async function deleteTags(actor: Actor | null, siteSlug: string, input: unknown): Promise<{ deleted: number }> {
   assertCan(actor, "config.edit");
   const { ids } = deleteTagsSchema.parse(input);
+  return removeTags(actor, siteSlug, ids, () => new HttpError(404, "some selected tags no longer exist; reload the list", "ids"));
+}
+
+/** Deletes one tag of a site, named by its id (in the URL): a missing one is a 404 naming "tag". */
+export async function deleteTag(actor: Actor | null, siteSlug: string, id: number): Promise<{ deleted: number }> {
+  assertCan(actor, "config.edit");
+  return removeTags(actor, siteSlug, [id], () => new HttpError(404, `no tag with id ${id} at this site`, "tag"));
+}
+
+async function removeTags(actor: Actor, siteSlug: string, ids: number[], missing: () => HttpError): Promise<{ deleted: number }> {
   return sequelize.transaction(async (transaction) => {
     const site = await siteBySlug(siteSlug, transaction);
     const rows = await Tag.findAll({ where: { siteId: site.id, id: { [Op.in]: ids } }, transaction, lock: transaction.LOCK.UPDATE, attributes: ["id", "name"] });
-    if (rows.length !== new Set(ids).size) throw new HttpError(404, "some selected tags no longer exist; reload the list", "ids");
+    if (rows.length !== new Set(ids).size) throw missing();
     await Tag.destroy({ where: { siteId: site.id, id: { [Op.in]: ids } }, transaction });
     const names = rows.map((r) => r.name).sort();
     await recordAudit(
