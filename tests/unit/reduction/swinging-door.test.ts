@@ -106,6 +106,43 @@ describe("swingingDoor — equals the straightforward reference (DESIGN.md) on r
     const { t, v } = points(s);
     expect(ints(swingingDoor(s, { deviation: 1 }))).toEqual(referenceSwingingDoor(t, v, 1));
   });
+
+  it("gives the reference's result when a corridor bound overflows but the slope does not", () => {
+    // v − vₐ + deviation overflows to +Infinity (Math.min leaves the bound alone), then
+    // v − vₐ − deviation to −Infinity; the slopes themselves stay finite.
+    const cases: [number[], number[], number][] = [
+      [[0, 1, 2, 3, 4, 5], [0, 1.5e308, 1.2e308, -1.5e308, 0, 1e308], 1e308],
+      [[0, 10, 20, 30, 40], [-1e308, 1e308, 1e308, -1e308, 1e308], 1.7e308],
+      [[0, 0.5, 1, 1.5, 2, 2.5, 3], [0, 1e308, 0, -1e308, 0, 1e308, 0], 1e308],
+    ];
+    for (const [times, values, deviation] of cases) {
+      const s = series(times, values);
+      const { t, v } = points(s);
+      expect(ints(swingingDoor(s, { deviation }))).toEqual(referenceSwingingDoor(t, v, deviation));
+    }
+  });
+
+  it("equals the reference for any finite values and deviations, up to the float limit (fast-check)", () => {
+    const wide = fc
+      .array(fc.tuple(fc.integer({ min: 1, max: 5_000 }), fc.double({ min: -Number.MAX_VALUE, max: Number.MAX_VALUE, noNaN: true })), {
+        minLength: 3,
+        maxLength: 60,
+      })
+      .map((rows) => {
+        let now = 1_700_000_000_000;
+        return series(
+          rows.map(([dt]) => (now += dt)),
+          rows.map(([, x]) => x),
+        );
+      });
+    fc.assert(
+      fc.property(wide, fc.double({ min: 0, max: Number.MAX_VALUE, noNaN: true }), (s, deviation) => {
+        const { t, v } = points(s);
+        expect(ints(swingingDoor(s, { deviation }))).toEqual(referenceSwingingDoor(t, v, deviation));
+      }),
+      { seed: 20261204, numRuns: 2_000 },
+    );
+  });
 });
 
 // fast-check: arbitrary series as positive time steps and bounded values.
