@@ -3,8 +3,11 @@
 // over 50 ms). Reference in the same run: the same scroll over a plain, non-virtual HTML
 // table of the same 50,000 rows. Each figure comes with the machine's load average and the
 // renderer's CPU time per frame, since the machine may be shared; TAG_BENCH_ROUNDS (default 2)
-// rounds of both. Run by `npm run bench` (scripts/stack.mjs starts a throwaway database and a
-// production server and passes their URLs).
+// rounds of both. Run by `npm run bench` or `npm run bench -- tags` (scripts/stack.mjs starts a
+// throwaway database and a production server and passes their URLs). For diagnosis:
+// TAG_BENCH_TRACE=dir saves a DevTools trace of each Sluice scroll, TAG_BENCH_PROFILE=dir a V8
+// CPU profile of the page, TAG_BENCH_JS_FLAGS passes V8 flags (e.g. a deoptimisation log).
+import { writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
 import { chromium, type CDPSession, type Page } from "playwright-core";
 import { Sequelize, QueryTypes } from "sequelize";
@@ -149,12 +152,24 @@ async function settle(cdp: CDPSession): Promise<void> {
  * renderer meanwhile (the page's), and the trace gives each main-thread task's CPU time: both
  * are inflated far less than wall time by other work on a shared machine.
  */
-async function scrollAndMeasure(page: Page, cdp: CDPSession, selector: string, step: number, tracePath?: string): Promise<Scroll> {
+async function scrollAndMeasure(page: Page, cdp: CDPSession, selector: string, step: number, tracePath?: string, profilePath?: string): Promise<Scroll> {
   const browser = page.context().browser()!;
   await browser.startTracing(page, { path: tracePath, categories: tracePath ? TRACE_DEVTOOLS : TRACE_TOPLEVEL });
+  // TAG_BENCH_PROFILE=dir: a V8 CPU profile of the page during the scroll (slows it down).
+  const profiler = profilePath ? await page.context().newCDPSession(page) : undefined;
+  if (profiler) {
+    await profiler.send("Profiler.enable");
+    await profiler.send("Profiler.setSamplingInterval", { interval: 200 });
+    await profiler.send("Profiler.start");
+  }
   const before = await rendererCpu(cdp);
   const s = (await page.evaluate(`(${SCROLL_SCRIPT})(${JSON.stringify(selector)}, ${step})`)) as Omit<Scroll, "load" | "cpuMs" | "cpuLongTasks" | "maxCpuMs">;
   const after = await rendererCpu(cdp);
+  if (profiler && profilePath) {
+    const { profile } = (await profiler.send("Profiler.stop")) as { profile: unknown };
+    writeFileSync(profilePath, JSON.stringify(profile));
+    await profiler.detach();
+  }
   const tasks = mainThreadTasks(await browser.stopTracing());
   const cpuMs = Math.max(...[...after].map(([id, t]) => 1000 * (t - (before.get(id) ?? 0))));
   return { ...s, load: loadavg()[0], cpuMs, ...tasks };
@@ -164,7 +179,17 @@ async function main() {
   await seedSite();
   const browser = await chromium.launch({
     executablePath: "/usr/bin/chromium",
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run"],
+    // TAG_BENCH_JS_FLAGS: V8 flags for the page (for instance a deoptimisation log), for diagnosis.
+    args: [
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+      "--no-first-run",
+      ...(process.env.TAG_BENCH_JS_FLAGS ? [`--js-flags=${process.env.TAG_BENCH_JS_FLAGS}`] : []),
+    ],
   });
   const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
   await page.goto(`${BASE}/sign-in`);
@@ -199,6 +224,7 @@ async function main() {
   // Before each scroll the browser is left to go quiet.
   const cdp = await browser.newBrowserCDPSession();
   const trace = process.env.TAG_BENCH_TRACE;
+  const profile = process.env.TAG_BENCH_PROFILE;
   const results: { round: number; step: number; app: Scroll; plain: Scroll }[] = [];
   let refLoad = 0;
   for (let round = 1; round <= ROUNDS; round++) {
@@ -206,7 +232,7 @@ async function main() {
       console.log(`tag-table bench: round ${round} of ${ROUNDS}, ${step} px/frame`);
       await settle(cdp);
       // TAG_BENCH_TRACE=dir: a Chromium performance trace of each Sluice scroll, for DevTools.
-      const app = await scrollAndMeasure(page, cdp, '[data-testid="tag-scroller"]', step, trace && `${trace}/tag-table-${step}px-${round}.json`);
+      const app = await scrollAndMeasure(page, cdp, '[data-testid="tag-scroller"]', step, trace && `${trace}/tag-table-${step}px-${round}.json`, profile && `${profile}/tag-table-${step}px-${round}.cpuprofile`);
       const ref = await browser.newPage({ viewport: { width: 1400, height: 900 } });
       const t1 = Date.now();
       await ref.setContent(plainHtml, { timeout: 180_000 });

@@ -572,7 +572,7 @@ async function bench() {
     code ||= run(bin("tsx"), ["bench/preview.ts"]);
     code ||= run(bin("tsx"), ["bench/bundles.ts"]);
   }
-  if (!only || only === "ui" || only === "pull") {
+  if (!only || only === "ui" || only === "tags" || only === "pull") {
     if (only !== "pull") ensureChromium();
     tmpData = fs.mkdtempSync(path.join(os.tmpdir(), "sluice-bench-"));
     const secrets = readSecrets(tmpData);
@@ -593,10 +593,10 @@ async function bench() {
     const child = spawnChild(process.execPath, [nextBin(), "start", "-p", String(appPort), "-H", "127.0.0.1"], env);
     await waitForHttp(`http://127.0.0.1:${appPort}/sign-in`, child);
     const benchEnv = { ...env, SLUICE_E2E_URL: `http://127.0.0.1:${appPort}` };
-    if (only !== "pull") {
+    if (only === "ui" || only === "tags" || !only) {
       log("browser benchmarks");
       code ||= run(bin("tsx"), ["bench/tag-table-scroll.ts"], { env: benchEnv });
-      code ||= run(bin("tsx"), ["bench/workbench.ts"], { env: benchEnv });
+      if (only !== "tags") code ||= run(bin("tsx"), ["bench/workbench.ts"], { env: benchEnv });
     }
     if (!only || only === "pull") {
       log("gateway pull benchmark");
