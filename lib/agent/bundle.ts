@@ -13,6 +13,8 @@ export type BundleGroup = {
   handling?: Handling;
   profile?: { name: string; revision: number };
   tags: string[];
+  /** Seconds beyond which a time step is a gap: one value, or per tag (absent: no gaps). */
+  gap?: number | Record<string, number>;
   outputs?: { name: string; steps: BundleStep[] }[];
 };
 /** A bundle as schemas/bundle.schema.json describes it (see lib/bundles/render.ts). */

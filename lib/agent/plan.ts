@@ -22,10 +22,16 @@ export type Plan = {
 /** The unit magnitudes are given in: the bundle has resolved them to each tag's own unit already. */
 const AS_BUNDLED = "as-bundled";
 /**
- * The bundle does not carry a tag's sample period, so the agent sees no gaps: a period the
- * size of the whole ECMAScript time range makes every possible step shorter than 3 periods.
+ * A tag's gap threshold in ms from its group's `gap` (seconds; one value or per tag). A
+ * tag without one (a bundle from before `gap`, or a map that leaves it out) has no gaps:
+ * a threshold the size of the whole ECMAScript time range is longer than any time step.
  */
-const NO_GAP_PERIOD_MS = 8.64e15;
+export function gapMsForTag(group: BundleGroup, tag: string): number {
+  const gap = group.gap;
+  const seconds = typeof gap === "object" && gap !== null ? (Object.hasOwn(gap, tag) ? gap[tag] : undefined) : gap;
+  return typeof seconds === "number" ? seconds * 1000 : NO_GAP_MS;
+}
+const NO_GAP_MS = 8.64e15;
 
 /** A step's parameters for one tag: a per-tag map read at the tag (absent: the method's default). */
 export function stepForTag(step: BundleStep, tag: string): ResolvedStep {
@@ -59,8 +65,11 @@ export function profileForTag(group: BundleGroup, tag: string): Profile {
   return { name: group.profile?.name ?? group.name, kinds: ["analog"], outputs };
 }
 
-/** The tag the agent runs a profile on: analog takes every method, magnitudes are already in its unit. */
-const runTag = (name: string): ProfileTag => ({ name, kind: "analog", unit: AS_BUNDLED, euLow: null, euHigh: null, samplePeriodMs: NO_GAP_PERIOD_MS });
+/**
+ * The tag the agent runs a profile on: analog takes every method, magnitudes are already in
+ * its unit. Its "sample period" is the bundled gap threshold, run with a gap factor of 1.
+ */
+const runTag = (name: string, gapMs: number): ProfileTag => ({ name, kind: "analog", unit: AS_BUNDLED, euLow: null, euHigh: null, samplePeriodMs: gapMs });
 
 function passThroughRunner(): TagRunner {
   const s = createPassThroughStream();
@@ -79,7 +88,7 @@ export function buildPlan(bundle: AgentBundle, digest: string): Plan {
     const handling = group === undefined ? bundle.unassigned.handling : group.handling;
     if (group === undefined || handling !== undefined) return handling === "drop" ? null : passThroughRunner();
     try {
-      return createProfileStream(profileForTag(group, tag), runTag(tag), { timeZone: zone });
+      return createProfileStream(profileForTag(group, tag), runTag(tag, gapMsForTag(group, tag)), { timeZone: zone, gapFactor: 1 });
     } catch (e) {
       throw new Error(`group "${group.name}", tag ${tag}: ${(e as Error).message}`);
     }

@@ -1,4 +1,5 @@
 import { METHODS, type ResolvedStep } from "@/lib/reduction/profile";
+import { DEFAULT_GAP_FACTOR } from "@/lib/reduction/signal";
 import { BundleError, type BundleGateway, type BundleInput, type ResolvedGroup, type SiteBundlesInput, type SiteModel, resolveSite } from "./resolve";
 import { Flow, type Scalar, type YamlValue, toYaml as writeYaml } from "./yaml-out";
 
@@ -11,7 +12,7 @@ export const BUNDLE_FORMAT = "bundle/1";
  * One gateway's bundle (DESIGN.md "Bundle"): YAML 1.2 holding the header (site, gateway,
  * release, issue time, poll interval, signing key id, the site's time zone), the default
  * handling with this gateway's tags in no group, then the groups in priority order that
- * hold any of its tags, each with its tags and its profile's outputs. A step parameter
+ * hold any of its tags, each with its tags, their gap threshold and its profile's outputs. A step parameter
  * equal for every one of the group's tags here is a plain value; otherwise a map from tag
  * to value (only the tags that have it, for an optional parameter set on some tags).
  * Keys come in a fixed order (steps: `method`, then the parameters in METHODS order),
@@ -74,6 +75,7 @@ function groupContent(g: ResolvedGroup, idx: number[], defaultHandling: string):
     ...head,
     profile: new Flow({ name: g.profile.name, revision: g.profile.revision }),
     tags: names,
+    gap: gapSeconds(idx.map((i) => g.tags[i].samplePeriodMs), names),
     outputs: first.map((o, k) => ({
       name: o.name,
       steps: o.steps.map((step, s) => {
@@ -85,6 +87,18 @@ function groupContent(g: ResolvedGroup, idx: number[], defaultHandling: string):
       }),
     })),
   };
+}
+
+/**
+ * The group's `gap` (DESIGN.md "Signals"): for each tag, the time step in seconds beyond
+ * which its samples are a gap — DEFAULT_GAP_FACTOR (3) × its sample period — so that the
+ * gateway, like the console's previews, never interpolates across one and keeps the
+ * samples on both sides. One value when the tags agree, else a map tag → seconds.
+ */
+function gapSeconds(periodsMs: number[], names: string[]): Scalar | Map<string, Scalar> {
+  const gaps = periodsMs.map((ms) => (ms * DEFAULT_GAP_FACTOR) / 1000);
+  if (gaps.every((g) => g === gaps[0])) return gaps[0];
+  return new Map(names.map((name, i) => [name, gaps[i]]));
 }
 
 /**

@@ -15,8 +15,8 @@ const MAX_PROBLEMS = 50;
  * Checks a bundle's bytes before they are stored or released (DESIGN.md "Bundle"): one
  * YAML 1.2 document (no duplicate keys, no aliases), then schemas/bundle.schema.json
  * (ajv, JSON Schema 2020-12), then what the schema cannot state: each tag appears once,
- * per-tag maps name only tags of their group (and every one of them for a required
- * parameter), group and output names are unique. Paths read like
+ * per-tag maps (step parameters and the group's gap) name only tags of their group (and
+ * every one of them for a required parameter), group and output names are unique. Paths read like
  * `groups[2].outputs[0].steps[1].deviation` ("" for the document).
  */
 export function validateBundle(yamlText: string): CheckedBundle {
@@ -40,7 +40,7 @@ export function validateBundle(yamlText: string): CheckedBundle {
 type Step = { method: StepMethod } & Record<string, unknown>;
 type Bundle = {
   unassigned: { tags: string[] };
-  groups: { name: string; tags: string[]; outputs?: { name: string; steps: Step[] }[] }[];
+  groups: { name: string; tags: string[]; gap?: number | Record<string, number>; outputs?: { name: string; steps: Step[] }[] }[];
 };
 
 function ruleProblems(b: Bundle): BundleProblem[] {
@@ -60,6 +60,10 @@ function ruleProblems(b: Bundle): BundleProblem[] {
     groupNames.add(g.name);
     place(g.tags, `${at}.tags`);
     const members = new Set(g.tags);
+    if (typeof g.gap === "object" && g.gap !== null) {
+      const stranger = Object.keys(g.gap).find((t) => !members.has(t));
+      if (stranger !== undefined) problems.push({ path: `${at}.gap.${stranger}`, message: `tag ${stranger} is not a tag of group "${g.name}"` });
+    }
     const outputNames = new Set<string>();
     (g.outputs ?? []).forEach((o, oi) => {
       if (outputNames.has(o.name)) problems.push({ path: `${at}.outputs[${oi}].name`, message: `output "${o.name}" appears twice` });

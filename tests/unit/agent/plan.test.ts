@@ -19,7 +19,7 @@ const stats: Profile = {
   ],
 };
 
-/** A temperature-like signal at 1 s with a few bad samples: no gaps, so gap handling cannot differ. */
+/** A temperature-like signal at 1 s with a few bad samples, and no gaps. */
 function signal(n: number, seed: number): Series {
   const r = seeded(seed);
   const t = new Float64Array(n);
@@ -86,6 +86,32 @@ describe("buildPlan", () => {
       expect(out[output].t).toEqual([...batch[output].series.t]);
       expect(out[output].v).toEqual([...batch[output].series.v]);
       expect(out[output].t.length).toBeLessThan(s.t.length);
+    }
+  });
+
+  it("cuts at the gaps the bundle gives (3 × each tag's sample period), exactly as runProfile on the original tag", () => {
+    const text = bundleText();
+    expect(parseBundle(text).groups.map((g) => g.gap)).toEqual([3, 1.5]);
+    const gapAt = [700, 1900];
+    for (const [name, profile, period, seed] of [
+      ["PAST1/TT-101/PV", shape(0.2), 1000, 5],
+      ["PAST1/PT-201/PV", deadband(), 500, 6],
+    ] as const) {
+      // The tag's own period, a 40-period outage before samples 700 and 1900, and a step of
+      // 2.5 periods before sample 1300 (not a gap: at most 3 periods).
+      const s = signal(3000, seed);
+      for (let i = 0; i < s.t.length; i++) {
+        s.t[i] = Date.UTC(2026, 11, 1, 10) + period * (i + (i >= gapAt[0] ? 40 : 0) + (i >= 1300 ? 1.5 : 0) + (i >= gapAt[1] ? 40 : 0));
+      }
+      const batch = runProfile(s, profile, tag(name), { convert: convertUnit });
+      const output = profile.outputs[0].name;
+      const out = streamed(plan(text).take(name)!, s);
+      expect(out[output].t).toEqual([...batch[output].series.t]);
+      expect(out[output].v).toEqual([...batch[output].series.v]);
+      for (const i of gapAt) expect(out[output].t).toEqual(expect.arrayContaining([s.t[i - 1], s.t[i]]));
+      // Without the key (a bundle from before it), the agent sees no gaps and keeps fewer of those samples.
+      const blind = streamed(plan(text.replaceAll(/ {4}gap: [0-9.]+\n/g, "")).take(name)!, s)[output].t;
+      expect(gapAt.flatMap((i) => [s.t[i - 1], s.t[i]]).every((t) => blind.includes(t))).toBe(false);
     }
   });
 

@@ -23,6 +23,7 @@ groups:
     profile: { name: Temperature shape, revision: 3 }
     tags:
       - PAST1/TT-103/PV
+    gap: 3
     outputs:
       - name: shape
         steps:
@@ -50,6 +51,21 @@ function shuffled<T>(list: readonly T[], seed: number): T[] {
 describe("renderBundle", () => {
   it("renders our layout: header, default handling, groups in priority order, resolved steps", () => {
     expect(renderBundle({ ...input(), gateway: gateways[1] })).toBe(GW2);
+  });
+
+  it("carries each tag's gap threshold (3 × its sample period, in seconds): one value when the group's tags agree, else a map", () => {
+    const same = parse(renderBundle({ ...input(), gateway: gateways[0] })) as { groups: { name: string; gap?: unknown }[] };
+    expect(same.groups.map((g) => [g.name, g.gap])).toEqual([
+      ["pasteuriser-temperatures", 3], // TT-101 and TT-102 at 1 s
+      ["pressures", 1.5], // PT-201 at 500 ms
+    ]);
+    const mixed = input({ tags: tags.map((t) => (t.name === "PAST1/TT-102/PV" ? { ...t, samplePeriodMs: 250 } : t)) });
+    const text = renderBundle({ ...mixed, gateway: gateways[0] });
+    expect(text).toContain("    gap:\n      PAST1/TT-101/PV: 3\n      PAST1/TT-102/PV: 0.75\n");
+    expect(validateBundle(text)).toEqual({ ok: true });
+    // A group without a profile runs no step, so it carries no gap.
+    const gw2 = parse(renderBundle({ ...input(), gateway: gateways[1] })) as { groups: { name: string; gap?: unknown }[] };
+    expect(gw2.groups.find((g) => g.name === "counters")).not.toHaveProperty("gap");
   });
 
   it("gives identical bytes when rendered twice", () => {

@@ -51,6 +51,22 @@ describe("validateBundle", () => {
     ]);
   });
 
+  it("checks the group's gap: positive seconds, a map naming only the group's tags, only beside a profile", () => {
+    expect(good).toContain("    gap: 1.5\n");
+    expect(problems(good.replace("    gap: 1.5\n", "    gap: 0\n"))).toEqual([
+      { path: "groups[1].gap", message: "must be a value of the parameter's type, or a map from tag name to such values" },
+    ]);
+    expect(problems(good.replace("    gap: 1.5\n", "    gap:\n      PAST1/PT-201/PV: 1.5\n      PAST1/PT-999/PV: 1.5\n"))).toEqual([
+      { path: "groups[1].gap.PAST1/PT-999/PV", message: 'tag PAST1/PT-999/PV is not a tag of group "pressures"' },
+    ]);
+    // Bundles rendered before the key existed stay valid (their tags have no gaps).
+    expect(validateBundle(good.replaceAll(/ {4}gap: [0-9.]+\n/g, ""))).toEqual({ ok: true });
+    const gw2 = renderBundle({ ...input(), gateway: gateways[1] });
+    const onHandling = gw2.replace("    handling: pass-through\n    tags:\n      - CIP/FQ-1/PV\n", "    handling: pass-through\n    tags:\n      - CIP/FQ-1/PV\n    gap: 3\n");
+    expect(onHandling).not.toBe(gw2);
+    expect(problems(onHandling)).toEqual([{ path: "groups[1]", message: "must have property profile when property gap is present" }]);
+  });
+
   it("refuses a group with both a profile and a default handling", () => {
     const both = good.replace("    profile: { name: Pressure deadband, revision: 1 }\n", "    profile: { name: Pressure deadband, revision: 1 }\n    handling: drop\n");
     expect(problems(both)).toEqual([{ path: "groups[1]", message: "a group has either a profile with outputs or a default handling, not both" }]);
