@@ -9,7 +9,8 @@
 // CPU profile of the page, TAG_BENCH_JS_FLAGS passes V8 flags (e.g. a deoptimisation log).
 import { writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
-import { chromium, type CDPSession, type Page } from "playwright-core";
+import type { CDPSession, Page } from "playwright-core";
+import { launch } from "../tests/e2e/browser";
 import { Sequelize, QueryTypes } from "sequelize";
 
 const DB = process.env.DATABASE_URL!;
@@ -177,20 +178,8 @@ async function scrollAndMeasure(page: Page, cdp: CDPSession, selector: string, s
 
 async function main() {
   await seedSite();
-  const browser = await chromium.launch({
-    executablePath: "/usr/bin/chromium",
-    // TAG_BENCH_JS_FLAGS: V8 flags for the page (for instance a deoptimisation log), for diagnosis.
-    args: [
-      "--headless",
-      "--no-sandbox",
-      "--disable-gpu",
-      "--disable-background-networking",
-      "--disable-component-update",
-      "--disable-sync",
-      "--no-first-run",
-      ...(process.env.TAG_BENCH_JS_FLAGS ? [`--js-flags=${process.env.TAG_BENCH_JS_FLAGS}`] : []),
-    ],
-  });
+  // TAG_BENCH_JS_FLAGS: V8 flags for the page (for instance a deoptimisation log), for diagnosis.
+  const browser = await launch(process.env.TAG_BENCH_JS_FLAGS ? [`--js-flags=${process.env.TAG_BENCH_JS_FLAGS}`] : []);
   const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
   await page.goto(`${BASE}/sign-in`);
   await page.getByLabel("E-mail").fill("ada.admin@demo.invalid");

@@ -12,7 +12,8 @@
 import fs from "node:fs";
 import { cpus, loadavg, tmpdir } from "node:os";
 import path from "node:path";
-import { chromium, type CDPSession, type Page } from "playwright-core";
+import type { CDPSession, Page } from "playwright-core";
+import { launch } from "../tests/e2e/browser";
 
 const BASE = process.env.SLUICE_E2E_URL ?? "http://localhost:3000";
 const ROWS = Number(process.env.WORKBENCH_BENCH_ROWS ?? 1_000_000);
@@ -151,10 +152,7 @@ async function main() {
   const file = path.join(tmpdir(), `sluice-workbench-${ROWS}.csv`);
   if (!fs.existsSync(file)) writeCsv(file);
   console.log(`workbench bench: ${rowsText} rows in ${file} (${(fs.statSync(file).size / 1e6).toFixed(1)} MB)`);
-  const browser = await chromium.launch({
-    executablePath: "/usr/bin/chromium",
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run"],
-  });
+  const browser = await launch();
   const page = await browser.newPage({ viewport: { width: 1400, height: 1000 } });
   await page.goto(`${BASE}/sign-in`);
   await page.getByLabel("E-mail").fill("eli.engineer@demo.invalid");

@@ -12,8 +12,11 @@ export const DEMO = {
   viewer: { email: "vic.viewer@demo.invalid", password: "demo-viewer-pass", name: "Vic Holloway" },
 } as const;
 
-/** Debian's Chromium, headless, with the flags this machine's closed network needs. */
-export function launch(): Promise<Browser> {
+/**
+ * Debian's Chromium, headless, with the flags this machine's closed network needs (and any
+ * extra ones: the benchmarks pass V8 flags through it).
+ */
+export function launch(extraArgs: string[] = []): Promise<Browser> {
   return chromium.launch({
     executablePath: "/usr/bin/chromium",
     args: [
@@ -24,6 +27,7 @@ export function launch(): Promise<Browser> {
       "--disable-component-update",
       "--disable-sync",
       "--no-first-run",
+      ...extraArgs,
     ],
   });
 }

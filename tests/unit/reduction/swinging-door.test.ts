@@ -123,18 +123,7 @@ describe("swingingDoor — equals the straightforward reference (DESIGN.md) on r
   });
 
   it("equals the reference for any finite values and deviations, up to the float limit (fast-check)", () => {
-    const wide = fc
-      .array(fc.tuple(fc.integer({ min: 1, max: 5_000 }), fc.double({ min: -Number.MAX_VALUE, max: Number.MAX_VALUE, noNaN: true })), {
-        minLength: 3,
-        maxLength: 60,
-      })
-      .map((rows) => {
-        let now = 1_700_000_000_000;
-        return series(
-          rows.map(([dt]) => (now += dt)),
-          rows.map(([, x]) => x),
-        );
-      });
+    const wide = seriesOf(Number.MAX_VALUE, 3, 60);
     fc.assert(
       fc.property(wide, fc.double({ min: 0, max: Number.MAX_VALUE, noNaN: true }), (s, deviation) => {
         const { t, v } = points(s);
@@ -145,19 +134,17 @@ describe("swingingDoor — equals the straightforward reference (DESIGN.md) on r
   });
 });
 
-// fast-check: arbitrary series as positive time steps and bounded values.
-const arbitrarySeries = fc
-  .array(fc.tuple(fc.integer({ min: 1, max: 5_000 }), fc.double({ min: -1e3, max: 1e3, noNaN: true })), {
-    minLength: 1,
-    maxLength: 300,
-  })
-  .map((rows) => {
+// fast-check: arbitrary series as positive time steps (1–5,000 ms) and values within ±limit.
+function seriesOf(limit: number, minLength: number, maxLength: number) {
+  return fc.array(fc.tuple(fc.integer({ min: 1, max: 5_000 }), fc.double({ min: -limit, max: limit, noNaN: true })), { minLength, maxLength }).map((rows) => {
     let now = 1_700_000_000_000;
     return series(
       rows.map(([dt]) => (now += dt)),
       rows.map(([, x]) => x),
     );
   });
+}
+const arbitrarySeries = seriesOf(1e3, 1, 300);
 
 describe("swingingDoor — properties (fast-check)", () => {
   it("keeps first and last, ascending, and every dropped sample within ±deviation of the kept line", () => {
