@@ -10,7 +10,7 @@
 import { writeFileSync } from "node:fs";
 import { cpus, loadavg } from "node:os";
 import type { CDPSession, Page } from "playwright-core";
-import { launch } from "../tests/e2e/browser";
+import { DEMO, launch, signIn } from "../tests/e2e/browser";
 import { Sequelize, QueryTypes } from "sequelize";
 
 const DB = process.env.DATABASE_URL!;
@@ -181,11 +181,7 @@ async function main() {
   // TAG_BENCH_JS_FLAGS: V8 flags for the page (for instance a deoptimisation log), for diagnosis.
   const browser = await launch(process.env.TAG_BENCH_JS_FLAGS ? [`--js-flags=${process.env.TAG_BENCH_JS_FLAGS}`] : []);
   const page = await browser.newPage({ viewport: { width: 1400, height: 900 } });
-  await page.goto(`${BASE}/sign-in`);
-  await page.getByLabel("E-mail").fill("ada.admin@demo.invalid");
-  await page.getByLabel("Password").fill("demo-admin-pass");
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+  await signIn(page, DEMO.admin);
   console.log("tag-table bench: signed in; loading the 50,000-tag inventory");
   const t0 = Date.now();
   await page.goto(`${BASE}/sites/${SLUG}/tags`);

@@ -13,7 +13,7 @@ import fs from "node:fs";
 import { cpus, loadavg, tmpdir } from "node:os";
 import path from "node:path";
 import type { CDPSession, Page } from "playwright-core";
-import { launch } from "../tests/e2e/browser";
+import { DEMO, launch, signIn } from "../tests/e2e/browser";
 
 const BASE = process.env.SLUICE_E2E_URL ?? "http://localhost:3000";
 const ROWS = Number(process.env.WORKBENCH_BENCH_ROWS ?? 1_000_000);
@@ -154,11 +154,7 @@ async function main() {
   console.log(`workbench bench: ${rowsText} rows in ${file} (${(fs.statSync(file).size / 1e6).toFixed(1)} MB)`);
   const browser = await launch();
   const page = await browser.newPage({ viewport: { width: 1400, height: 1000 } });
-  await page.goto(`${BASE}/sign-in`);
-  await page.getByLabel("E-mail").fill("eli.engineer@demo.invalid");
-  await page.getByLabel("Password").fill("demo-engineer-pass");
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL((u) => !u.pathname.startsWith("/sign-in"));
+  await signIn(page, DEMO.engineer);
   await page.goto(`${BASE}/workbench`);
   await page.getByLabel("Profile", { exact: true }).selectOption({ label: PROFILE });
   await page.getByLabel(/^Deviation \(degC\)/).waitFor();
