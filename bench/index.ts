@@ -136,7 +136,7 @@ const rows = cases.map((c, k) => {
   const r = refs.get(c);
   if (r) {
     const speedup = r.ref / r.mine;
-    refCell = `${c.ref?.name} ${fmt(r.ref)} ms (${fmt(r.refMedian)}), ${fmt(r.refHeap)} MB → ${fmt(speedup)}×${r.same}`;
+    refCell = `${c.ref?.name} ${fmt(r.ref)} ms (${fmt(r.refMedian)}), ${fmt(r.refHeap)} MB; ours ${fmt(r.mine, 2)} ms in those rounds → ${fmt(speedup)}×${r.same}`;
     const withInput = `${fmt((r.ref + r.build) / r.mine)}× if building its input from the typed arrays (${fmt(r.build)} ms) is counted`;
     if (c.target?.speedup) {
       verdicts.push(verdict(`${c.name} ≥ ${c.target.speedup}× ${c.ref?.name}`, speedup >= c.target.speedup, `${fmt(speedup)}× (${withInput})`));
@@ -150,7 +150,8 @@ const rows = cases.map((c, k) => {
 printTable(["method", "parameters", "kept", "ms best (median)", "Msamples/s", "× scan", "reference, same run: best (median)", "heap MB"], rows);
 console.log(`\n${N.toLocaleString("en")} samples: noisy random walk + 6 h oscillation + rare spikes, ~1 s irregular sampling.`);
 console.log(`Node ${process.version}. Time of a run = min(wall, process CPU). ${ROUNDS} round-robin rounds after ${WARMUPS} warm-ups;`);
-console.log("references: 7 rounds alternating with our method after 2 warm-ups. Speeds and ratios use the best run.");
+console.log("references: 7 rounds alternating with our method after 2 warm-ups (each run follows the other's, garbage and cache state included).");
+console.log("Speeds and ratios use the best run.");
 console.log("heap MB = V8 heap + ArrayBuffers grown by one run, measured right after it (after a full GC before it).");
 console.log(`Process peak RSS: ${fmt(peakRssMb(), 0)} MB (includes the reference libraries' point objects).\n`);
 for (const line of verdicts) console.log(line);

@@ -56,6 +56,33 @@ function plainLttb(s: Series, threshold: number): number[] {
   return kept;
 }
 
+/** How many buckets hold their largest area (given the kept samples) more than once. */
+function tiedBuckets(s: Series, threshold: number, kept: number[]): number {
+  const n = s.t.length;
+  const every = (n - 2) / (threshold - 2);
+  let tied = 0;
+  for (let i = 0; i < threshold - 2; i++) {
+    const a = kept[i];
+    const avgFrom = Math.floor((i + 1) * every) + 1;
+    const avgTo = Math.min(Math.floor((i + 2) * every) + 1, n);
+    let avgX = 0;
+    let avgY = 0;
+    for (let k = avgFrom; k < avgTo; k++) {
+      avgX += s.t[k];
+      avgY += s.v[k];
+    }
+    avgX /= avgTo - avgFrom;
+    avgY /= avgTo - avgFrom;
+    const areas: number[] = [];
+    for (let j = Math.floor(i * every) + 1; j < avgFrom; j++) {
+      areas.push(Math.abs((s.t[a] - avgX) * (s.v[j] - s.v[a]) - (s.t[a] - s.t[j]) * (avgY - s.v[a])));
+    }
+    const max = Math.max(...areas);
+    if (areas.filter((x) => x === max).length > 1) tied++;
+  }
+  return tied;
+}
+
 /** Pairs (n, threshold) where floor((threshold − 2)·every) + 1 falls short of n − 1. */
 function roundingEdges(count: number): [number, number][] {
   const edges: [number, number][] = [];
@@ -124,6 +151,22 @@ describe("lttb — identical to the thesis author's reference function (downsamp
       endless.t[499] = Number.POSITIVE_INFINITY;
       expect(() => lttb(endless, { points: 23 })).toThrow(/499/);
     }
+  });
+
+  it("with many equal areas in one bucket, wherever they fall in it", () => {
+    // Three levels on a regular grid: most buckets hold several samples of the same,
+    // largest area, at even and odd places, so the first of them must win every time.
+    const rand = mulberry32(2013);
+    let ties = 0;
+    for (let k = 0; k < 200; k++) {
+      const n = 20 + Math.floor(rand() * 400);
+      const s = unitSeries(Array.from({ length: n }, () => Math.floor(rand() * 3)));
+      const threshold = 3 + Math.floor(rand() * (n / 3));
+      const kept = ints(lttb(s, { points: threshold }));
+      expect(kept).toEqual(referenceIndices(s, threshold));
+      ties += tiedBuckets(s, threshold, kept);
+    }
+    expect(ties).toBeGreaterThan(200); // buckets whose largest area is shared: exercised, not dodged
   });
 
   it("where `downsample` (its own bucketing) can differ in the last bucket, the reference decides", () => {
