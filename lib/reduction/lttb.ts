@@ -63,10 +63,9 @@ export function lttb(s: Series, p: BucketParams): Uint32Array {
  * every area is the reference's expression. The maximum area is found without branches
  * (a data-dependent branch there mispredicts a few times per bucket, and each miss throws
  * away the work begun on the next bucket): about a third faster, and ties still go to the
- * first sample (see the loop). Finiteness is
- * checked once per bucket on the sums (a NaN or an infinity makes the sum non-finite); only
- * a non-finite sum, which finite values can also produce by overflowing, checks its
- * samples one by one.
+ * first sample (see the loop). Finiteness is checked once per bucket on the sums (a NaN
+ * or an infinity makes the sum non-finite); only a non-finite sum, which finite values
+ * can also produce by overflowing, checks its samples one by one.
  */
 function fillLttb(t: Float64Array, v: Float64Array, out: Uint32Array, every: number): boolean {
   const n = t.length;

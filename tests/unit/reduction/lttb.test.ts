@@ -16,6 +16,33 @@ function referenceIndices(s: Series, threshold: number): number[] {
 }
 
 /**
+ * The areas of bucket i's samples (from its first sample on) against sample a and the
+ * next bucket's average: the reference function's bounds, sums and expression.
+ */
+function bucketAreas(s: Series, every: number, i: number, a: number): { from: number; areas: number[] } {
+  const n = s.t.length;
+  let avgRangeStart = Math.floor((i + 1) * every) + 1;
+  let avgRangeEnd = Math.floor((i + 2) * every) + 1;
+  avgRangeEnd = avgRangeEnd < n ? avgRangeEnd : n;
+  const avgRangeLength = avgRangeEnd - avgRangeStart;
+  let avgX = 0;
+  let avgY = 0;
+  for (; avgRangeStart < avgRangeEnd; avgRangeStart++) {
+    avgX += s.t[avgRangeStart];
+    avgY += s.v[avgRangeStart];
+  }
+  avgX /= avgRangeLength;
+  avgY /= avgRangeLength;
+  const from = Math.floor(i * every) + 1;
+  const to = Math.floor((i + 1) * every) + 1;
+  const areas: number[] = [];
+  for (let j = from; j < to; j++) {
+    areas.push(Math.abs((s.t[a] - avgX) * (s.v[j] - s.v[a]) - (s.t[a] - s.t[j]) * (avgY - s.v[a])) * 0.5);
+  }
+  return { from, areas };
+}
+
+/**
  * The reference function's loop (largestTriangleThreeBuckets) on typed arrays, except that a
  * bucket in which no area compares (all NaN) keeps its first sample instead of the previous
  * bucket's point.
@@ -26,29 +53,15 @@ function plainLttb(s: Series, threshold: number): number[] {
   const kept = [0];
   let a = 0;
   for (let i = 0; i < threshold - 2; i++) {
-    let avgRangeStart = Math.floor((i + 1) * every) + 1;
-    let avgRangeEnd = Math.floor((i + 2) * every) + 1;
-    avgRangeEnd = avgRangeEnd < n ? avgRangeEnd : n;
-    const avgRangeLength = avgRangeEnd - avgRangeStart;
-    let avgX = 0;
-    let avgY = 0;
-    for (; avgRangeStart < avgRangeEnd; avgRangeStart++) {
-      avgX += s.t[avgRangeStart];
-      avgY += s.v[avgRangeStart];
-    }
-    avgX /= avgRangeLength;
-    avgY /= avgRangeLength;
-    const rangeOffs = Math.floor(i * every) + 1;
-    const rangeTo = Math.floor((i + 1) * every) + 1;
+    const { from, areas } = bucketAreas(s, every, i, a);
     let maxArea = -1;
-    let next = rangeOffs;
-    for (let j = rangeOffs; j < rangeTo; j++) {
-      const area = Math.abs((s.t[a] - avgX) * (s.v[j] - s.v[a]) - (s.t[a] - s.t[j]) * (avgY - s.v[a])) * 0.5;
+    let next = from;
+    areas.forEach((area, k) => {
       if (area > maxArea) {
         maxArea = area;
-        next = j;
+        next = from + k;
       }
-    }
+    });
     kept.push(next);
     a = next;
   }
@@ -58,25 +71,10 @@ function plainLttb(s: Series, threshold: number): number[] {
 
 /** How many buckets hold their largest area (given the kept samples) more than once. */
 function tiedBuckets(s: Series, threshold: number, kept: number[]): number {
-  const n = s.t.length;
-  const every = (n - 2) / (threshold - 2);
+  const every = (s.t.length - 2) / (threshold - 2);
   let tied = 0;
   for (let i = 0; i < threshold - 2; i++) {
-    const a = kept[i];
-    const avgFrom = Math.floor((i + 1) * every) + 1;
-    const avgTo = Math.min(Math.floor((i + 2) * every) + 1, n);
-    let avgX = 0;
-    let avgY = 0;
-    for (let k = avgFrom; k < avgTo; k++) {
-      avgX += s.t[k];
-      avgY += s.v[k];
-    }
-    avgX /= avgTo - avgFrom;
-    avgY /= avgTo - avgFrom;
-    const areas: number[] = [];
-    for (let j = Math.floor(i * every) + 1; j < avgFrom; j++) {
-      areas.push(Math.abs((s.t[a] - avgX) * (s.v[j] - s.v[a]) - (s.t[a] - s.t[j]) * (avgY - s.v[a])));
-    }
+    const { areas } = bucketAreas(s, every, i, kept[i]);
     const max = Math.max(...areas);
     if (areas.filter((x) => x === max).length > 1) tied++;
   }
